@@ -1,0 +1,2 @@
+/** Sparse blocked background grid. */
+package dev.fray.core.grid;

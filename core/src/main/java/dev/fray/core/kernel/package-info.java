@@ -1,0 +1,2 @@
+/** Particle-grid interpolation kernels (B-splines). */
+package dev.fray.core.kernel;

@@ -1,0 +1,103 @@
+package dev.fray.core.material;
+
+import dev.fray.core.particles.ChannelSpec;
+
+import java.util.List;
+
+/**
+ * A constitutive law: from the deformation gradient F (and the law's own channels) to energy and stress.
+ * One instance is shared by all particles of a body and by all worker threads, so implementations are immutable;
+ * per-particle state lives in the channels the law declares. Methods work on a particle range {@code [from, to)}
+ * and write into arrays the caller provides, so there is one virtual call per batch, not per particle.
+ *
+ * <p>Output layout: for particle p in the range, its 3x3 result is at {@code out[9(p-from) + 3r + c]} (row-major)
+ * and its scalar result at {@code out[p-from]}. Stresses are in Pa, energy densities in J/m^3 of reference volume.
+ */
+public interface MaterialLaw {
+    /** @return the law's registry name, e.g. "fixed-corotated" */
+    String name();
+
+    /** @return mass density in the reference configuration, kg/m^3 */
+    double density();
+
+    /**
+     * @return the largest elastic wave speed of the undeformed material, m/s, used for the time-step bound
+     *         (for isotropic laws the P-wave speed sqrt((lambda + 2 mu)/rho); include fiber stiffness)
+     */
+    double waveSpeed();
+
+    /** @return the per-particle channels this law needs besides F; default none */
+    default List<ChannelSpec> channels() {
+        return List.of();
+    }
+
+    /**
+     * Strain energy density psi(F) of each particle.
+     *
+     * @param state particle data (input, not modified)
+     * @param from  first particle, inclusive
+     * @param to    last particle, exclusive
+     * @param out   (output) psi in J/m^3, one per particle, at out[p - from]
+     */
+    void energyDensity(MaterialState state, int from, int to, double[] out);
+
+    /**
+     * First Piola-Kirchhoff stress P = dpsi/dF of each particle.
+     *
+     * @param state particle data (input, not modified)
+     * @param from  first particle, inclusive
+     * @param to    last particle, exclusive
+     * @param out   (output) P in Pa, 9 per particle, row-major, at out[9(p - from)]
+     */
+    void firstPiolaKirchhoff(MaterialState state, int from, int to, double[] out);
+
+    /**
+     * Kirchhoff stress tau = P F^T of each particle, the quantity the transfer needs. The default computes P and
+     * multiplies; laws override it when tau has a cheaper closed form.
+     *
+     * @param state particle data (input, not modified)
+     * @param from  first particle, inclusive
+     * @param to    last particle, exclusive
+     * @param out   (output) tau in Pa, 9 per particle, row-major, at out[9(p - from)]
+     */
+    default void kirchhoffStress(MaterialState state, int from, int to, double[] out) {
+        firstPiolaKirchhoff(state, from, to, out);
+        double[] f = state.deformation();
+        for (int p = from; p < to; p++) {
+            int o = 9 * (p - from);
+            int fo = 9 * p;
+            double p00 = out[o], p01 = out[o + 1], p02 = out[o + 2];
+            double p10 = out[o + 3], p11 = out[o + 4], p12 = out[o + 5];
+            double p20 = out[o + 6], p21 = out[o + 7], p22 = out[o + 8];
+            for (int r = 0; r < 3; r++) {
+                double a0 = r == 0 ? p00 : r == 1 ? p10 : p20;
+                double a1 = r == 0 ? p01 : r == 1 ? p11 : p21;
+                double a2 = r == 0 ? p02 : r == 1 ? p12 : p22;
+                for (int c = 0; c < 3; c++) {
+                    // (P F^T)_rc = sum_k P_rk F_ck
+                    out[o + 3 * r + c] = a0 * f[fo + 3 * c] + a1 * f[fo + 3 * c + 1] + a2 * f[fo + 3 * c + 2];
+                }
+            }
+        }
+    }
+
+    /**
+     * Whether {@link #projectDeformation} does anything. Tells the truth: the solver skips the call when false.
+     *
+     * @return true for laws with a return mapping (plasticity)
+     */
+    default boolean projectsDeformation() {
+        return false;
+    }
+
+    /**
+     * After the deformation update, moves F back to the admissible set and updates plastic state (return mapping).
+     * Default: no-op.
+     *
+     * @param state particle data; F and this law's channels may be modified in [from, to)
+     * @param from  first particle, inclusive
+     * @param to    last particle, exclusive
+     */
+    default void projectDeformation(MaterialState state, int from, int to) {
+    }
+}

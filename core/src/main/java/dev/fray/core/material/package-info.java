@@ -1,0 +1,2 @@
+/** Plugin interface for constitutive laws and the particle data they see. */
+package dev.fray.core.material;

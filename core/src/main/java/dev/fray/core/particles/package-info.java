@@ -1,0 +1,2 @@
+/** Structure-of-arrays particle store with named channels. */
+package dev.fray.core.particles;

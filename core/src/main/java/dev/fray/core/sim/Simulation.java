@@ -1,0 +1,1090 @@
+package dev.fray.core.sim;
+
+import dev.fray.core.boundary.Bounds;
+import dev.fray.core.boundary.Contact;
+import dev.fray.core.boundary.Grip;
+import dev.fray.core.boundary.Motion;
+import dev.fray.core.boundary.Obstacle;
+import dev.fray.core.boundary.Shape;
+import dev.fray.core.error.FrayMessage;
+import dev.fray.core.error.InvalidInputException;
+import dev.fray.core.error.SimulationDivergedException;
+import dev.fray.core.grid.KeyIndex;
+import dev.fray.core.grid.SparseGrid;
+import dev.fray.core.kernel.Kernel;
+import dev.fray.core.material.MaterialLaw;
+import dev.fray.core.parallel.Workers;
+import dev.fray.core.particles.ChannelSpec;
+import dev.fray.core.particles.ParticleStore;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.Collections;
+import java.util.List;
+import java.util.SplittableRandom;
+import java.util.concurrent.CopyOnWriteArrayList;
+
+/**
+ * An explicit MLS-MPM simulation with APIC transfers on a sparse blocked grid (Hu et al. 2018; Jiang et al. 2015).
+ * Each step: sort particles by grid block, activate blocks, scatter mass, momentum and stress force (P2G), update
+ * grid velocities (gravity, damping, grips, walls, obstacles), gather velocities and the affine matrix (G2P),
+ * advect particles and update F.
+ *
+ * <p>The scatter runs in 8 colour phases by block-coordinate parity, each block's particles in sorted order, so
+ * no two threads write the same node and the sum at every node is formed in the same order for any thread count:
+ * results are bitwise identical for 1 or N threads. Not thread-safe: drive one simulation from one thread; only
+ * {@link #requestStop()} may be called from another.
+ */
+public final class Simulation implements SimulationView, AutoCloseable {
+    private static final String GRIP_CHANNEL = "grip";
+    private static final int DIAG_CHUNK = 4096;
+    private static final int GRID_TASK_BLOCKS = 16;
+
+    private final Scene scene;
+    private final ParticleStore store;
+    private final SparseGrid grid = new SparseGrid();
+    private final Workers workers;
+    private final MaterialLaw[] laws;
+    private final List<String> bodyNames;
+    private final Kernel kernel;
+    private final double dx;
+    private final double invDx;
+    private final double ox, oy, oz;
+    private final double maxWaveSpeed;
+    private final double speedLimit;
+    private final Scratch[] scratch;
+    private final List<StepListener> stepListeners = new CopyOnWriteArrayList<>();
+    private final List<FrameListener> frameListeners = new CopyOnWriteArrayList<>();
+    private final ParticleView particleView = new View();
+    private volatile boolean stopRequested;
+
+    // Sorting and block bookkeeping, reused every step.
+    private final long[] keys;
+    private final int[] order;
+    private int[] ints;
+    private final double[][] permScratch = new double[10][];
+    private int blockCount;
+    private long[] blockKeys = new long[64];
+    private int[] blockStart = new int[65];
+    private int[] blockCounts = new int[64];
+    private int[] blockRank = new int[64];
+    private int[] neighbours = new int[64 * 8];
+    private final int[] colourStart = new int[9];
+    private final int[] colourCursor = new int[9];
+    private int[] colourBlocks = new int[64];
+    private double[] blockMaxSpeed = new double[64];
+    private int[] blockBad = new int[64];
+    private int[] blockFastest = new int[64];
+    private final KeyIndex lookup = new KeyIndex();
+    private final double[] obstaclePose;
+    private final double[] gripPose;
+
+    private double time;
+    private long step;
+    private double dt;
+    private int frame;
+    private boolean frameZeroSent;
+    private double maxSpeed;
+
+    /**
+     * Samples the bodies into particles and prepares the solver.
+     *
+     * @param scene the scene
+     * @throws InvalidInputException if a body holds no particle
+     */
+    public Simulation(Scene scene) {
+        this.scene = scene;
+        this.kernel = scene.kernel();
+        this.dx = scene.cellSize();
+        this.invDx = 1.0 / dx;
+        Bounds d = scene.domain();
+        this.ox = d.minX();
+        this.oy = d.minY();
+        this.oz = d.minZ();
+        List<Body> bodies = scene.bodies();
+        laws = new MaterialLaw[bodies.size()];
+        List<String> names = new ArrayList<>();
+        double c = 0;
+        for (int b = 0; b < bodies.size(); b++) {
+            laws[b] = bodies.get(b).material();
+            names.add(bodies.get(b).name());
+            c = Math.max(c, laws[b].waveSpeed());
+        }
+        bodyNames = Collections.unmodifiableList(names);
+        maxWaveSpeed = c;
+        store = sample(scene);
+        for (MaterialLaw law : laws) {
+            for (ChannelSpec spec : law.channels()) {
+                store.declare(spec);
+            }
+        }
+        int n = store.size();
+        keys = new long[n];
+        order = new int[n];
+        ints = new int[n];
+        obstaclePose = new double[12 * scene.obstacles().size()];
+        gripPose = new double[12 * scene.grips().size()];
+        double prescribed = 0;
+        for (Obstacle o : scene.obstacles()) {
+            prescribed = Math.max(prescribed, o.motion().linearSpeed());
+        }
+        for (Grip g : scene.grips()) {
+            prescribed = Math.max(prescribed, g.motion().linearSpeed());
+        }
+        speedLimit = Double.isNaN(scene.speedLimit())
+                ? Math.max(100.0, Math.max(20 * maxWaveSpeed, 20 * prescribed)) : scene.speedLimit();
+        workers = new Workers(scene.threads());
+        scratch = new Scratch[scene.threads()];
+        for (int i = 0; i < scratch.length; i++) {
+            scratch[i] = new Scratch();
+        }
+        maxSpeed = currentMaxSpeed();
+    }
+
+    private ParticleStore sample(Scene scene) {
+        List<Body> bodies = scene.bodies();
+        double[][] pos = new double[bodies.size()][];
+        int[] counts = new int[bodies.size()];
+        int total = 0;
+        for (int b = 0; b < bodies.size(); b++) {
+            Body body = bodies.get(b);
+            double s = Double.isNaN(body.spacing()) ? 0.5 * dx : body.spacing();
+            Bounds bb = body.shape().bounds();
+            long nx = Math.max(1, (long) Math.floor((bb.maxX() - bb.minX()) / s + 1e-9));
+            long ny = Math.max(1, (long) Math.floor((bb.maxY() - bb.minY()) / s + 1e-9));
+            long nz = Math.max(1, (long) Math.floor((bb.maxZ() - bb.minZ()) / s + 1e-9));
+            if (nx * ny * nz > 200_000_000L) {
+                throw new InvalidInputException(FrayMessage.OUT_OF_RANGE, "body \"" + body.name()
+                        + "\" lattice points", nx * ny * nz, "<= 2e8 (use a larger spacing)");
+            }
+            // Centre the lattice in the bounds so a box is filled symmetrically.
+            double x0 = 0.5 * (bb.minX() + bb.maxX()) - 0.5 * (nx - 1) * s;
+            double y0 = 0.5 * (bb.minY() + bb.maxY()) - 0.5 * (ny - 1) * s;
+            double z0 = 0.5 * (bb.minZ() + bb.maxZ()) - 0.5 * (nz - 1) * s;
+            SplittableRandom rng = new SplittableRandom(body.seed());
+            double j = body.jitter() * s;
+            Shape shape = body.shape();
+            double[] out = new double[3 * 1024];
+            int k = 0;
+            for (long ix = 0; ix < nx; ix++) {
+                for (long iy = 0; iy < ny; iy++) {
+                    for (long iz = 0; iz < nz; iz++) {
+                        double x = x0 + ix * s + j * (2 * rng.nextDouble() - 1);
+                        double y = y0 + iy * s + j * (2 * rng.nextDouble() - 1);
+                        double z = z0 + iz * s + j * (2 * rng.nextDouble() - 1);
+                        if (shape.distance(x, y, z) <= 0) {
+                            if (3 * k + 3 > out.length) {
+                                out = Arrays.copyOf(out, out.length * 2);
+                            }
+                            out[3 * k] = x;
+                            out[3 * k + 1] = y;
+                            out[3 * k + 2] = z;
+                            k++;
+                        }
+                    }
+                }
+            }
+            if (k == 0) {
+                throw new InvalidInputException(FrayMessage.BODY_EMPTY, body.name(), s);
+            }
+            pos[b] = out;
+            counts[b] = k;
+            total = Math.addExact(total, k);
+        }
+        ParticleStore ps = new ParticleStore(total);
+        boolean grips = !scene.grips().isEmpty();
+        if (grips) {
+            ps.declare(new ChannelSpec(GRIP_CHANNEL, 1, -1, "1", "index of the grip holding the particle, -1 none"));
+        }
+        double[] x = ps.position();
+        double[] v = ps.velocity();
+        double[] m = ps.mass();
+        double[] vol = ps.volume();
+        int[] bodyOf = ps.body();
+        double[] gripOf = grips ? ps.channel(GRIP_CHANNEL) : null;
+        double[] field = new double[3];
+        int p = 0;
+        for (int b = 0; b < bodies.size(); b++) {
+            Body body = bodies.get(b);
+            double s = Double.isNaN(body.spacing()) ? 0.5 * dx : body.spacing();
+            double v0 = s * s * s;
+            double rho = body.material().density();
+            Bounds bb = body.shape().bounds();
+            double cx = 0.5 * (bb.minX() + bb.maxX()), cy = 0.5 * (bb.minY() + bb.maxY());
+            double cz = 0.5 * (bb.minZ() + bb.maxZ());
+            double[] lv = body.linearVelocity();
+            double[] av = body.angularVelocity();
+            for (int k = 0; k < counts[b]; k++, p++) {
+                double px = pos[b][3 * k], py = pos[b][3 * k + 1], pz = pos[b][3 * k + 2];
+                x[3 * p] = px;
+                x[3 * p + 1] = py;
+                x[3 * p + 2] = pz;
+                double rx = px - cx, ry = py - cy, rz = pz - cz;
+                double vx = lv[0] + av[1] * rz - av[2] * ry;
+                double vy = lv[1] + av[2] * rx - av[0] * rz;
+                double vz = lv[2] + av[0] * ry - av[1] * rx;
+                if (body.velocityField() != null) {
+                    field[0] = field[1] = field[2] = 0;
+                    body.velocityField().velocity(px, py, pz, field);
+                    vx += field[0];
+                    vy += field[1];
+                    vz += field[2];
+                }
+                v[3 * p] = vx;
+                v[3 * p + 1] = vy;
+                v[3 * p + 2] = vz;
+                m[p] = rho * v0;
+                vol[p] = v0;
+                bodyOf[p] = b;
+                if (grips) {
+                    List<Grip> gl = scene.grips();
+                    for (int g = 0; g < gl.size(); g++) {
+                        if (gl.get(g).body().equals(body.name())
+                                && gl.get(g).region().distance(px, py, pz) <= 0) {
+                            gripOf[p] = g;
+                            break;
+                        }
+                    }
+                }
+            }
+        }
+        return ps;
+    }
+
+    // ------------------------------------------------------------------ listeners
+
+    /** @param l listener to add; called after every step, in the order added */
+    public void addStepListener(StepListener l) {
+        stepListeners.add(l);
+    }
+
+    /** @return the step listeners (unmodifiable) */
+    public List<StepListener> getStepListeners() {
+        return Collections.unmodifiableList(stepListeners);
+    }
+
+    /** Removes all step listeners. */
+    public void clearStepListeners() {
+        stepListeners.clear();
+    }
+
+    /** @param l frame listener to add; called at frame times after the step listeners */
+    public void addFrameListener(FrameListener l) {
+        frameListeners.add(l);
+    }
+
+    /** @return the frame listeners (unmodifiable) */
+    public List<FrameListener> getFrameListeners() {
+        return Collections.unmodifiableList(frameListeners);
+    }
+
+    /** Removes all frame listeners. */
+    public void clearFrameListeners() {
+        frameListeners.clear();
+    }
+
+    /** Asks a running {@link #run} to stop after the current step; safe to call from any thread. */
+    public void requestStop() {
+        stopRequested = true;
+    }
+
+    // ------------------------------------------------------------------ run loop
+
+    /**
+     * Advances the simulation by a duration, sending step and frame events.
+     *
+     * @param duration simulated seconds to advance, &gt; 0
+     * @return what the run did
+     * @throws SimulationDivergedException if the state becomes non-finite or a speed runs away
+     */
+    public RunSummary run(double duration) {
+        dev.fray.core.error.Checks.positive("duration (s)", duration);
+        double endTime = time + duration;
+        long startStep = step;
+        double startTime = time;
+        long wall0 = System.nanoTime();
+        stopRequested = false;
+        boolean stopped = false;
+        for (StepListener l : stepListeners) {
+            l.init(this, endTime);
+        }
+        try {
+            if (!frameZeroSent) {
+                frameZeroSent = true;
+                for (FrameListener f : frameListeners) {
+                    f.onFrame(0, time, this, false);
+                }
+            }
+            while (!reached(endTime)) {
+                if (stopRequested) {
+                    stopped = true;
+                    break;
+                }
+                long t0 = System.nanoTime();
+                boolean landed = advance(endTime);
+                StepInfo info = new StepInfo(step - 1, time, dt, (System.nanoTime() - t0) * 1e-9, this);
+                for (StepListener l : stepListeners) {
+                    if (l.afterStep(info) == StepAction.STOP) {
+                        stopped = true;
+                    }
+                }
+                stopped |= stopRequested;
+                if (landed) {
+                    boolean last = stopped || reached(endTime);
+                    for (FrameListener f : frameListeners) {
+                        f.onFrame(frame, time, this, last);
+                    }
+                }
+                if (stopped) {
+                    break;
+                }
+            }
+        } finally {
+            for (StepListener l : stepListeners) {
+                l.finish(this);
+            }
+            for (FrameListener f : frameListeners) {
+                f.finish(this);
+            }
+        }
+        return new RunSummary(step - startStep, time - startTime, (System.nanoTime() - wall0) * 1e-9, stopped);
+    }
+
+    /**
+     * Advances by whole frames.
+     *
+     * @param frames number of frames, &gt;= 1
+     * @return what the run did
+     */
+    public RunSummary runFrames(int frames) {
+        dev.fray.core.error.Checks.inRange("frames", frames, 1, Integer.MAX_VALUE);
+        return run(frameTime(frame + frames) - time);
+    }
+
+    private boolean reached(double endTime) {
+        return time >= endTime - 1e-12 * Math.max(1.0, Math.abs(endTime));
+    }
+
+    private double frameTime(int k) {
+        return k / scene.frameRate();
+    }
+
+    /**
+     * Takes one step without sending events (frame times are still landed on exactly).
+     *
+     * @return the time step taken, s
+     */
+    public double step() {
+        advance(Double.POSITIVE_INFINITY);
+        return dt;
+    }
+
+    /** @return whether the step landed on a frame time */
+    private boolean advance(double endTime) {
+        double next = frameTime(frame + 1);
+        double target = Math.min(next, endTime);
+        double h;
+        if (!Double.isNaN(scene.fixedTimeStep())) {
+            h = scene.fixedTimeStep();
+        } else {
+            h = scene.cfl() * dx / (maxSpeed + maxWaveSpeed);
+        }
+        h = Math.min(h, scene.maxTimeStep());
+        double remaining = target - time;
+        boolean landing = false;
+        if (h >= remaining * (1 - 1e-9)) {
+            h = remaining;
+            landing = true;
+        } else if (Double.isNaN(scene.fixedTimeStep()) && h > 0.5 * remaining) {
+            // Split what is left in two equal steps instead of leaving a sliver.
+            h = 0.5 * remaining;
+        }
+        if (!(h > 0) || !Double.isFinite(h)) {
+            throw new SimulationDivergedException("time step " + h + " s", bodyNames.get(0), -1, step, time,
+                    "check material stiffness and density, and the cell size");
+        }
+        dt = h;
+        stepOnce(h);
+        step++;
+        boolean onFrame = landing && target == next;
+        time = landing ? target : time + h;
+        if (onFrame) {
+            frame++;
+        }
+        return onFrame;
+    }
+
+    // ------------------------------------------------------------------ the step
+
+    private void stepOnce(double h) {
+        sortAndActivate();
+        scatter(h);
+        updateGrid(h);
+        gather(h);
+        checkDivergence(h);
+    }
+
+    private int blockOf(double xi) {
+        return kernel.base(xi) >> 2;
+    }
+
+    private void sortAndActivate() {
+        int n = store.size();
+        double[] x = store.position();
+        // Keys per particle: the block holding the particle's first stencil node.
+        int tasks = (n + DIAG_CHUNK - 1) / DIAG_CHUNK;
+        workers.forEach(tasks, (w, t) -> {
+            int a = t * DIAG_CHUNK;
+            int b = Math.min(n, a + DIAG_CHUNK);
+            for (int p = a; p < b; p++) {
+                keys[p] = SparseGrid.key(blockOf((x[3 * p] - ox) * invDx), blockOf((x[3 * p + 1] - oy) * invDx),
+                        blockOf((x[3 * p + 2] - oz) * invDx));
+            }
+        });
+        // Dense ids in first-appearance order, then ranks by key so blocks are in key order.
+        lookup.clear();
+        int[] ids = ints;
+        long lastKey = Long.MIN_VALUE;
+        int lastId = -1;
+        for (int p = 0; p < n; p++) {
+            long k = keys[p];
+            if (k != lastKey) {
+                lastId = lookup.id(k);
+                lastKey = k;
+            }
+            ids[p] = lastId;
+        }
+        blockCount = lookup.size();
+        ensureBlockCapacity(blockCount);
+        long[] uniq = lookup.keys();
+        System.arraycopy(uniq, 0, blockKeys, 0, blockCount);
+        Arrays.sort(blockKeys, 0, blockCount);
+        for (int i = 0; i < blockCount; i++) {
+            blockRank[i] = Arrays.binarySearch(blockKeys, 0, blockCount, uniq[i]);
+        }
+        Arrays.fill(blockCounts, 0, blockCount, 0);
+        for (int p = 0; p < n; p++) {
+            blockCounts[blockRank[ids[p]]]++;
+        }
+        blockStart[0] = 0;
+        for (int r = 0; r < blockCount; r++) {
+            blockStart[r + 1] = blockStart[r] + blockCounts[r];
+        }
+        System.arraycopy(blockStart, 0, blockCounts, 0, blockCount);
+        for (int p = 0; p < n; p++) {
+            order[blockCounts[blockRank[ids[p]]]++] = p;
+        }
+        store.permute(order, permScratch, ints);
+        ints = store.freedScratch();
+        // Grid blocks: each particle block and its 7 upper neighbours, which its stencils reach.
+        grid.clear();
+        for (int r = 0; r < blockCount; r++) {
+            long k = blockKeys[r];
+            int bx = SparseGrid.keyX(k), by = SparseGrid.keyY(k), bz = SparseGrid.keyZ(k);
+            for (int nbr = 0; nbr < 8; nbr++) {
+                neighbours[8 * r + nbr] = grid.activate(SparseGrid.key(bx + (nbr >> 2), by + ((nbr >> 1) & 1),
+                        bz + (nbr & 1)));
+            }
+        }
+        grid.allocateNodes();
+        int gb = grid.blockCount();
+        workers.forEach((gb + GRID_TASK_BLOCKS - 1) / GRID_TASK_BLOCKS, (w, t) ->
+                grid.zero(t * GRID_TASK_BLOCKS, Math.min(gb, (t + 1) * GRID_TASK_BLOCKS)));
+        // Colour classes by block parity.
+        int[] cc = colourCursor;
+        Arrays.fill(cc, 0);
+        for (int r = 0; r < blockCount; r++) {
+            cc[colour(blockKeys[r]) + 1]++;
+        }
+        for (int c = 0; c < 8; c++) {
+            cc[c + 1] += cc[c];
+        }
+        System.arraycopy(cc, 0, colourStart, 0, 9);
+        for (int r = 0; r < blockCount; r++) {
+            colourBlocks[cc[colour(blockKeys[r])]++] = r;
+        }
+    }
+
+    private static int colour(long key) {
+        return ((SparseGrid.keyX(key) & 1) << 2) | ((SparseGrid.keyY(key) & 1) << 1) | (SparseGrid.keyZ(key) & 1);
+    }
+
+    private void ensureBlockCapacity(int nb) {
+        if (blockKeys.length < nb) {
+            int cap = Math.max(nb, blockKeys.length * 2);
+            blockKeys = new long[cap];
+            blockStart = new int[cap + 1];
+            blockCounts = new int[cap];
+            blockRank = new int[cap];
+            neighbours = new int[8 * cap];
+            colourBlocks = new int[cap];
+            blockMaxSpeed = new double[cap];
+            blockBad = new int[cap];
+            blockFastest = new int[cap];
+        }
+    }
+
+    private void scatter(double h) {
+        for (int c = 0; c < 8; c++) {
+            final int from = colourStart[c];
+            workers.forEach(colourStart[c + 1] - from, (w, t) -> scatterBlock(scratch[w], colourBlocks[from + t], h));
+        }
+    }
+
+    private void scatterBlock(Scratch sc, int r, double h) {
+        int start = blockStart[r];
+        int end = blockStart[r + 1];
+        long key = blockKeys[r];
+        int baseX = 4 * SparseGrid.keyX(key), baseY = 4 * SparseGrid.keyY(key), baseZ = 4 * SparseGrid.keyZ(key);
+        int s = kernel.support();
+        double dinv = kernel.inverseInertia(dx);
+        double[] x = store.position();
+        double[] v = store.velocity();
+        double[] cm = store.affine();
+        double[] mass = store.mass();
+        double[] vol = store.volume();
+        int[] body = store.body();
+        double[] gripOf = scene.grips().isEmpty() ? null : store.channel(GRIP_CHANNEL);
+        double[] gm = grid.mass();
+        double[] gp = grid.momentum();
+        int[] gg = grid.grip();
+        double[] wx = sc.wx, wy = sc.wy, wz = sc.wz;
+        int[] nx = sc.nx, ny = sc.ny, nz = sc.nz;
+        int nb = 8 * r;
+        for (int runStart = start; runStart < end; ) {
+            int b = body[runStart];
+            int runEnd = runStart + 1;
+            while (runEnd < end && body[runEnd] == b) {
+                runEnd++;
+            }
+            double[] tau = sc.tau(runEnd - runStart);
+            laws[b].kirchhoffStress(store, runStart, runEnd, tau);
+            for (int p = runStart; p < runEnd; p++) {
+                double xi = (x[3 * p] - ox) * invDx, yi = (x[3 * p + 1] - oy) * invDx;
+                double zi = (x[3 * p + 2] - oz) * invDx;
+                int bx = kernel.base(xi), by = kernel.base(yi), bz = kernel.base(zi);
+                double fx = xi - bx, fy = yi - by, fz = zi - bz;
+                kernel.weights(fx, wx, 0);
+                kernel.weights(fy, wy, 0);
+                kernel.weights(fz, wz, 0);
+                for (int i = 0; i < s; i++) {
+                    int gx = bx - baseX + i, gy = by - baseY + i, gz = bz - baseZ + i;
+                    // Bits 0-2: which of the 8 neighbour blocks; bits 3-8: node offset inside that block.
+                    nx[i] = ((gx >> 2) << 2) | ((gx & 3) << 7);
+                    ny[i] = ((gy >> 2) << 1) | ((gy & 3) << 5);
+                    nz[i] = (gz >> 2) | ((gz & 3) << 3);
+                }
+                double m = mass[p];
+                int o = 9 * (p - runStart);
+                double k = -h * vol[p] * dinv;
+                int c9 = 9 * p;
+                double a00 = m * cm[c9] + k * tau[o], a01 = m * cm[c9 + 1] + k * tau[o + 1];
+                double a02 = m * cm[c9 + 2] + k * tau[o + 2];
+                double a10 = m * cm[c9 + 3] + k * tau[o + 3], a11 = m * cm[c9 + 4] + k * tau[o + 4];
+                double a12 = m * cm[c9 + 5] + k * tau[o + 5];
+                double a20 = m * cm[c9 + 6] + k * tau[o + 6], a21 = m * cm[c9 + 7] + k * tau[o + 7];
+                double a22 = m * cm[c9 + 8] + k * tau[o + 8];
+                double mvx = m * v[3 * p], mvy = m * v[3 * p + 1], mvz = m * v[3 * p + 2];
+                int grip = gripOf == null ? -1 : (int) gripOf[p];
+                for (int i = 0; i < s; i++) {
+                    double dpx = (i - fx) * dx;
+                    double wi = wx[i];
+                    for (int j = 0; j < s; j++) {
+                        double dpy = (j - fy) * dx;
+                        double wij = wi * wy[j];
+                        int nij = nx[i] + ny[j];
+                        for (int l = 0; l < s; l++) {
+                            double dpz = (l - fz) * dx;
+                            double wgt = wij * wz[l];
+                            int code = nij + nz[l];
+                            int node = (neighbours[nb + (code & 7)] << 6) + (code >>> 3);
+                            gm[node] += wgt * m;
+                            int n3 = 3 * node;
+                            gp[n3] += wgt * (mvx + a00 * dpx + a01 * dpy + a02 * dpz);
+                            gp[n3 + 1] += wgt * (mvy + a10 * dpx + a11 * dpy + a12 * dpz);
+                            gp[n3 + 2] += wgt * (mvz + a20 * dpx + a21 * dpy + a22 * dpz);
+                            if (grip >= 0 && grip < gg[node]) {
+                                gg[node] = grip;
+                            }
+                        }
+                    }
+                }
+            }
+            runStart = runEnd;
+        }
+    }
+
+    private void updateGrid(double h) {
+        int gb = grid.blockCount();
+        int[] coords = grid.blockCoords();
+        double[] g = scene.gravity();
+        double gx = g[0] * h, gy = g[1] * h, gz = g[2] * h;
+        double decay = Math.exp(-scene.damping() * h);
+        List<Obstacle> obstacles = scene.obstacles();
+        List<Grip> grips = scene.grips();
+        for (int i = 0; i < obstacles.size(); i++) {
+            obstacles.get(i).motion().pose(time, scratchPose);
+            System.arraycopy(scratchPose, 0, obstaclePose, 12 * i, 12);
+        }
+        for (int i = 0; i < grips.size(); i++) {
+            grips.get(i).motion().pose(time, scratchPose);
+            System.arraycopy(scratchPose, 0, gripPose, 12 * i, 12);
+        }
+        Bounds d = scene.domain();
+        List<Contact> walls = scene.walls();
+        double[] wallAt = {d.minX(), d.maxX(), d.minY(), d.maxY(), d.minZ(), d.maxZ()};
+        double tol = 1e-6 * dx;
+        workers.forEach((gb + GRID_TASK_BLOCKS - 1) / GRID_TASK_BLOCKS, (w, t) -> {
+            Scratch sc = scratch[w];
+            double[] gm = grid.mass();
+            double[] gv = grid.momentum();
+            int[] gg = grid.grip();
+            double[] nrm = sc.normal;
+            int b1 = Math.min(gb, (t + 1) * GRID_TASK_BLOCKS);
+            for (int b = t * GRID_TASK_BLOCKS; b < b1; b++) {
+                int bx = 4 * coords[3 * b], by = 4 * coords[3 * b + 1], bz = 4 * coords[3 * b + 2];
+                for (int l = 0; l < SparseGrid.NODES_PER_BLOCK; l++) {
+                    int node = (b << 6) + l;
+                    double m = gm[node];
+                    int n3 = 3 * node;
+                    if (m <= 0) {
+                        gv[n3] = 0;
+                        gv[n3 + 1] = 0;
+                        gv[n3 + 2] = 0;
+                        continue;
+                    }
+                    double inv = 1.0 / m;
+                    gv[n3] = (gv[n3] * inv + gx) * decay;
+                    gv[n3 + 1] = (gv[n3 + 1] * inv + gy) * decay;
+                    gv[n3 + 2] = (gv[n3 + 2] * inv + gz) * decay;
+                    double px = ox + (bx + (l >> 4)) * dx;
+                    double py = oy + (by + ((l >> 2) & 3)) * dx;
+                    double pz = oz + (bz + (l & 3)) * dx;
+                    int grip = gg[node];
+                    if (grip != Integer.MAX_VALUE) {
+                        frameVelocity(grips.get(grip).motion(), gripPose, 12 * grip, px, py, pz, gv, n3);
+                        continue;
+                    }
+                    for (int f = 0; f < 6; f++) {
+                        Contact c = walls.get(f);
+                        if (c.type() == Contact.Type.OPEN) {
+                            continue;
+                        }
+                        int axis = f >> 1;
+                        double coord = axis == 0 ? px : axis == 1 ? py : pz;
+                        boolean lower = (f & 1) == 0;
+                        if (lower ? coord - wallAt[f] <= tol : wallAt[f] - coord <= tol) {
+                            nrm[0] = 0;
+                            nrm[1] = 0;
+                            nrm[2] = 0;
+                            nrm[axis] = lower ? 1 : -1;
+                            c.apply(gv, n3, nrm, 0, 0, 0, 0);
+                        }
+                    }
+                    for (int o = 0; o < obstacles.size(); o++) {
+                        applyObstacle(obstacles.get(o), 12 * o, px, py, pz, gv, n3, nrm);
+                    }
+                }
+            }
+        });
+    }
+
+    private void applyObstacle(Obstacle ob, int q, double px, double py, double pz, double[] gv, int n3,
+                               double[] nrm) {
+        double[] pose = obstaclePose;
+        Motion mo = ob.motion();
+        // Node position in the obstacle's frame at time 0: x0 = c0 + R^T (x - c(t)).
+        double rx = px - pose[q + 9], ry = py - pose[q + 10], rz = pz - pose[q + 11];
+        double lx = mo.cx() + pose[q] * rx + pose[q + 3] * ry + pose[q + 6] * rz;
+        double ly = mo.cy() + pose[q + 1] * rx + pose[q + 4] * ry + pose[q + 7] * rz;
+        double lz = mo.cz() + pose[q + 2] * rx + pose[q + 5] * ry + pose[q + 8] * rz;
+        if (ob.shape().distance(lx, ly, lz) > 0) {
+            return;
+        }
+        ob.shape().normal(lx, ly, lz, nrm, 3);
+        nrm[0] = pose[q] * nrm[3] + pose[q + 1] * nrm[4] + pose[q + 2] * nrm[5];
+        nrm[1] = pose[q + 3] * nrm[3] + pose[q + 4] * nrm[4] + pose[q + 5] * nrm[5];
+        nrm[2] = pose[q + 6] * nrm[3] + pose[q + 7] * nrm[4] + pose[q + 8] * nrm[5];
+        frameVelocity(mo, pose, q, px, py, pz, nrm, 6);
+        ob.contact().apply(gv, n3, nrm, 0, nrm[6], nrm[7], nrm[8]);
+    }
+
+    private final double[] scratchPose = new double[12];
+
+    /** Velocity of a moving frame at a point: v + w x (x - c(t)). */
+    private static void frameVelocity(Motion mo, double[] pose, int q, double px, double py, double pz,
+                                      double[] out, int off) {
+        double rx = px - pose[q + 9], ry = py - pose[q + 10], rz = pz - pose[q + 11];
+        out[off] = mo.vx() + mo.wy() * rz - mo.wz() * ry;
+        out[off + 1] = mo.vy() + mo.wz() * rx - mo.wx() * rz;
+        out[off + 2] = mo.vz() + mo.wx() * ry - mo.wy() * rx;
+    }
+
+    private void gather(double h) {
+        workers.forEach(blockCount, (w, r) -> gatherBlock(scratch[w], r, h));
+    }
+
+    private void gatherBlock(Scratch sc, int r, double h) {
+        int start = blockStart[r];
+        int end = blockStart[r + 1];
+        long key = blockKeys[r];
+        int baseX = 4 * SparseGrid.keyX(key), baseY = 4 * SparseGrid.keyY(key), baseZ = 4 * SparseGrid.keyZ(key);
+        int s = kernel.support();
+        double dinv = kernel.inverseInertia(dx);
+        double[] x = store.position();
+        double[] v = store.velocity();
+        double[] cm = store.affine();
+        double[] f = store.deformation();
+        double[] gv = grid.momentum();
+        double[] wx = sc.wx, wy = sc.wy, wz = sc.wz;
+        int[] nx = sc.nx, ny = sc.ny, nz = sc.nz;
+        int nb = 8 * r;
+        double fastest = 0;
+        int fastestP = start;
+        int bad = -1;
+        for (int p = start; p < end; p++) {
+            double xi = (x[3 * p] - ox) * invDx, yi = (x[3 * p + 1] - oy) * invDx, zi = (x[3 * p + 2] - oz) * invDx;
+            int bx = kernel.base(xi), by = kernel.base(yi), bz = kernel.base(zi);
+            double fx = xi - bx, fy = yi - by, fz = zi - bz;
+            kernel.weights(fx, wx, 0);
+            kernel.weights(fy, wy, 0);
+            kernel.weights(fz, wz, 0);
+            for (int i = 0; i < s; i++) {
+                int gx = bx - baseX + i, gy = by - baseY + i, gz = bz - baseZ + i;
+                nx[i] = ((gx >> 2) << 2) | ((gx & 3) << 7);
+                ny[i] = ((gy >> 2) << 1) | ((gy & 3) << 5);
+                nz[i] = (gz >> 2) | ((gz & 3) << 3);
+            }
+            double vx = 0, vy = 0, vz = 0;
+            double b00 = 0, b01 = 0, b02 = 0, b10 = 0, b11 = 0, b12 = 0, b20 = 0, b21 = 0, b22 = 0;
+            for (int i = 0; i < s; i++) {
+                double dpx = (i - fx) * dx;
+                double wi = wx[i];
+                for (int j = 0; j < s; j++) {
+                    double dpy = (j - fy) * dx;
+                    double wij = wi * wy[j];
+                    int nij = nx[i] + ny[j];
+                    for (int l = 0; l < s; l++) {
+                        double dpz = (l - fz) * dx;
+                        double wgt = wij * wz[l];
+                        int code = nij + nz[l];
+                        int n3 = 3 * ((neighbours[nb + (code & 7)] << 6) + (code >>> 3));
+                        double ux = wgt * gv[n3], uy = wgt * gv[n3 + 1], uz = wgt * gv[n3 + 2];
+                        vx += ux;
+                        vy += uy;
+                        vz += uz;
+                        b00 += ux * dpx;
+                        b01 += ux * dpy;
+                        b02 += ux * dpz;
+                        b10 += uy * dpx;
+                        b11 += uy * dpy;
+                        b12 += uy * dpz;
+                        b20 += uz * dpx;
+                        b21 += uz * dpy;
+                        b22 += uz * dpz;
+                    }
+                }
+            }
+            v[3 * p] = vx;
+            v[3 * p + 1] = vy;
+            v[3 * p + 2] = vz;
+            x[3 * p] += h * vx;
+            x[3 * p + 1] += h * vy;
+            x[3 * p + 2] += h * vz;
+            int c9 = 9 * p;
+            double c00 = dinv * b00, c01 = dinv * b01, c02 = dinv * b02;
+            double c10 = dinv * b10, c11 = dinv * b11, c12 = dinv * b12;
+            double c20 = dinv * b20, c21 = dinv * b21, c22 = dinv * b22;
+            cm[c9] = c00;
+            cm[c9 + 1] = c01;
+            cm[c9 + 2] = c02;
+            cm[c9 + 3] = c10;
+            cm[c9 + 4] = c11;
+            cm[c9 + 5] = c12;
+            cm[c9 + 6] = c20;
+            cm[c9 + 7] = c21;
+            cm[c9 + 8] = c22;
+            // F <- (I + h C) F
+            double f00 = f[c9], f01 = f[c9 + 1], f02 = f[c9 + 2];
+            double f10 = f[c9 + 3], f11 = f[c9 + 4], f12 = f[c9 + 5];
+            double f20 = f[c9 + 6], f21 = f[c9 + 7], f22 = f[c9 + 8];
+            f[c9] = f00 + h * (c00 * f00 + c01 * f10 + c02 * f20);
+            f[c9 + 1] = f01 + h * (c00 * f01 + c01 * f11 + c02 * f21);
+            f[c9 + 2] = f02 + h * (c00 * f02 + c01 * f12 + c02 * f22);
+            f[c9 + 3] = f10 + h * (c10 * f00 + c11 * f10 + c12 * f20);
+            f[c9 + 4] = f11 + h * (c10 * f01 + c11 * f11 + c12 * f21);
+            f[c9 + 5] = f12 + h * (c10 * f02 + c11 * f12 + c12 * f22);
+            f[c9 + 6] = f20 + h * (c20 * f00 + c21 * f10 + c22 * f20);
+            f[c9 + 7] = f21 + h * (c20 * f01 + c21 * f11 + c22 * f21);
+            f[c9 + 8] = f22 + h * (c20 * f02 + c21 * f12 + c22 * f22);
+            double speed2 = vx * vx + vy * vy + vz * vz;
+            if (!(speed2 <= Double.MAX_VALUE) || !Double.isFinite(f[c9] + f[c9 + 4] + f[c9 + 8])) {
+                if (bad < 0) {
+                    bad = p;
+                }
+            } else if (speed2 > fastest) {
+                fastest = speed2;
+                fastestP = p;
+            }
+        }
+        int[] body = store.body();
+        for (int runStart = start; runStart < end; ) {
+            int b = body[runStart];
+            int runEnd = runStart + 1;
+            while (runEnd < end && body[runEnd] == b) {
+                runEnd++;
+            }
+            if (laws[b].projectsDeformation()) {
+                laws[b].projectDeformation(store, runStart, runEnd);
+            }
+            runStart = runEnd;
+        }
+        blockMaxSpeed[r] = Math.sqrt(fastest);
+        blockFastest[r] = fastestP;
+        blockBad[r] = bad;
+    }
+
+    private void checkDivergence(double h) {
+        double fastest = 0;
+        int fastestP = -1;
+        for (int r = 0; r < blockCount; r++) {
+            if (blockBad[r] >= 0) {
+                int p = blockBad[r];
+                throw new SimulationDivergedException("non-finite velocity or deformation",
+                        bodyNames.get(store.body()[p]), store.id()[p], step, time, suggestion());
+            }
+            if (blockMaxSpeed[r] > fastest) {
+                fastest = blockMaxSpeed[r];
+                fastestP = blockFastest[r];
+            }
+        }
+        if (fastest > speedLimit) {
+            throw new SimulationDivergedException("speed " + fastest + " m/s above the limit " + speedLimit
+                    + " m/s", bodyNames.get(store.body()[fastestP]), store.id()[fastestP], step, time, suggestion());
+        }
+        if (fastest * h > dx) {
+            throw new SimulationDivergedException("particle moved " + fastest * h / dx + " cells in one step",
+                    bodyNames.get(store.body()[fastestP]), store.id()[fastestP], step, time,
+                    "use a smaller fixedTimeStep or the adaptive step");
+        }
+        maxSpeed = fastest;
+    }
+
+    private String suggestion() {
+        return "try a smaller cfl (now " + scene.cfl() + "), a smaller maxTimeStep, softer or denser material, "
+                + "or check for bodies that start overlapping obstacles";
+    }
+
+    private double currentMaxSpeed() {
+        double[] v = store.velocity();
+        double best = 0;
+        for (int p = 0; p < store.size(); p++) {
+            double s2 = v[3 * p] * v[3 * p] + v[3 * p + 1] * v[3 * p + 1] + v[3 * p + 2] * v[3 * p + 2];
+            best = Math.max(best, s2);
+        }
+        return Math.sqrt(best);
+    }
+
+    // ------------------------------------------------------------------ view and diagnostics
+
+    @Override
+    public double time() {
+        return time;
+    }
+
+    @Override
+    public long stepCount() {
+        return step;
+    }
+
+    @Override
+    public double dt() {
+        return dt;
+    }
+
+    /** @return the current frame index (frames whose time has been reached) */
+    public int frame() {
+        return frame;
+    }
+
+    @Override
+    public Scene scene() {
+        return scene;
+    }
+
+    @Override
+    public List<String> bodyNames() {
+        return bodyNames;
+    }
+
+    @Override
+    public ParticleView particles() {
+        return particleView;
+    }
+
+    /** @return the largest elastic wave speed over the bodies, m/s, used by the time-step bound */
+    public double maxWaveSpeed() {
+        return maxWaveSpeed;
+    }
+
+    /**
+     * The time step the solver would take now if no frame time were near: CFL dx / (max speed + wave speed).
+     *
+     * @return the step, s
+     */
+    public double estimatedTimeStep() {
+        if (!Double.isNaN(scene.fixedTimeStep())) {
+            return Math.min(scene.fixedTimeStep(), scene.maxTimeStep());
+        }
+        return Math.min(scene.maxTimeStep(), scene.cfl() * dx / (maxSpeed + maxWaveSpeed));
+    }
+
+    @Override
+    public long gridMemoryBytes() {
+        return grid.memoryBytes();
+    }
+
+    @Override
+    public long particleMemoryBytes() {
+        return store.memoryBytes();
+    }
+
+    @Override
+    public Diagnostics diagnostics() {
+        int n = store.size();
+        int tasks = (n + DIAG_CHUNK - 1) / DIAG_CHUNK;
+        double[] part = new double[10 * tasks];
+        double inertia = kernel.inertia(dx);
+        workers.forEach(tasks, (w, t) -> {
+            int a = t * DIAG_CHUNK;
+            int b = Math.min(n, a + DIAG_CHUNK);
+            double[] x = store.position();
+            double[] v = store.velocity();
+            double[] c = store.affine();
+            double[] m = store.mass();
+            double[] vol = store.volume();
+            int[] body = store.body();
+            double ke = 0, ee = 0, px = 0, py = 0, pz = 0, lx = 0, ly = 0, lz = 0, vmax = 0;
+            for (int p = a; p < b; p++) {
+                double mp = m[p];
+                double vx = v[3 * p], vy = v[3 * p + 1], vz = v[3 * p + 2];
+                double rx = x[3 * p], ry = x[3 * p + 1], rz = x[3 * p + 2];
+                double s2 = vx * vx + vy * vy + vz * vz;
+                ke += 0.5 * mp * s2;
+                vmax = Math.max(vmax, s2);
+                px += mp * vx;
+                py += mp * vy;
+                pz += mp * vz;
+                // x cross v plus the APIC spin m D eps:(C^T) (Jiang et al. 2015).
+                lx += mp * (ry * vz - rz * vy + inertia * (c[9 * p + 7] - c[9 * p + 5]));
+                ly += mp * (rz * vx - rx * vz + inertia * (c[9 * p + 2] - c[9 * p + 6]));
+                lz += mp * (rx * vy - ry * vx + inertia * (c[9 * p + 3] - c[9 * p + 1]));
+            }
+            double[] psi = scratch[w].tau(b - a);
+            for (int runStart = a; runStart < b; ) {
+                int bd = body[runStart];
+                int runEnd = runStart + 1;
+                while (runEnd < b && body[runEnd] == bd) {
+                    runEnd++;
+                }
+                laws[bd].energyDensity(store, runStart, runEnd, psi);
+                for (int p = runStart; p < runEnd; p++) {
+                    ee += vol[p] * psi[p - runStart];
+                }
+                runStart = runEnd;
+            }
+            int o = 10 * t;
+            part[o] = ke;
+            part[o + 1] = ee;
+            part[o + 2] = px;
+            part[o + 3] = py;
+            part[o + 4] = pz;
+            part[o + 5] = lx;
+            part[o + 6] = ly;
+            part[o + 7] = lz;
+            part[o + 8] = vmax;
+        });
+        double[] sum = new double[10];
+        for (int t = 0; t < tasks; t++) {
+            for (int k = 0; k < 8; k++) {
+                sum[k] += part[10 * t + k];
+            }
+            sum[8] = Math.max(sum[8], part[10 * t + 8]);
+        }
+        return new Diagnostics(step, time, dt, sum[0], sum[1], sum[2], sum[3], sum[4], sum[5], sum[6], sum[7],
+                Math.sqrt(sum[8]));
+    }
+
+    /** Stops the worker threads. The simulation cannot run afterwards. */
+    @Override
+    public void close() {
+        workers.close();
+    }
+
+    /** Per-worker scratch space; never shared between threads. */
+    private static final class Scratch {
+        final double[] wx = new double[4];
+        final double[] wy = new double[4];
+        final double[] wz = new double[4];
+        final int[] nx = new int[4];
+        final int[] ny = new int[4];
+        final int[] nz = new int[4];
+        final double[] normal = new double[9];
+        private double[] tau = new double[9 * 1024];
+
+        double[] tau(int particles) {
+            if (tau.length < 9 * particles) {
+                tau = new double[Math.max(9 * particles, tau.length * 2)];
+            }
+            return tau;
+        }
+    }
+
+    private final class View implements ParticleView {
+        @Override
+        public int size() {
+            return store.size();
+        }
+
+        @Override
+        public int id(int p) {
+            return store.id()[p];
+        }
+
+        @Override
+        public int body(int p) {
+            return store.body()[p];
+        }
+
+        @Override
+        public List<String> channelNames() {
+            return store.channelNames();
+        }
+
+        @Override
+        public ChannelSpec spec(String name) {
+            ChannelSpec s = store.spec(name);
+            if (s == null) {
+                throw new InvalidInputException(FrayMessage.UNKNOWN_NAME, "particle channel", name,
+                        store.channelNames());
+            }
+            return s;
+        }
+
+        @Override
+        public double get(String name, int p, int component) {
+            int w = spec(name).width();
+            return store.channel(name)[w * p + component];
+        }
+
+        @Override
+        public void copyById(String name, double[] dst, int off) {
+            int w = spec(name).width();
+            double[] src = store.channel(name);
+            int[] id = store.id();
+            for (int p = 0; p < store.size(); p++) {
+                System.arraycopy(src, w * p, dst, off + w * id[p], w);
+            }
+        }
+    }
+}
