@@ -85,4 +85,36 @@ public enum Kernel {
             }
         }
     }
+
+    /**
+     * Derivatives of the stencil weights with respect to the particle coordinate in cell units; divide by dx for
+     * the spatial gradient of the node's shape function.
+     *
+     * @param fx  as for {@link #weights}
+     * @param out (output) support() derivatives at out[off+i]
+     * @param off offset into out
+     */
+    public void derivatives(double fx, double[] out, int off) {
+        if (this == QUADRATIC) {
+            out[off] = fx - 1.5;
+            out[off + 1] = -2.0 * (fx - 1.0);
+            out[off + 2] = fx - 0.5;
+        } else {
+            for (int i = 0; i < 4; i++) {
+                double r = fx - i;
+                double d = Math.abs(r);
+                double sign = r >= 0 ? 1.0 : -1.0;
+                double dw;
+                if (d < 1.0) {
+                    dw = 1.5 * d * d - 2.0 * d;
+                } else if (d < 2.0) {
+                    double e = 2.0 - d;
+                    dw = -0.5 * e * e;
+                } else {
+                    dw = 0.0;
+                }
+                out[off + i] = dw * sign;
+            }
+        }
+    }
 }

@@ -82,6 +82,29 @@ public interface MaterialLaw {
     }
 
     /**
+     * Splits the undamaged Kirchhoff stress into the part that damage degrades (tension, fiber stretch) and the
+     * part it keeps (compression), with the energy densities of both; the degradable energy is the crack driving
+     * force. The sums equal {@link #kirchhoffStress} and {@link #energyDensity}. The default treats everything as
+     * degradable, so a damaged law without a split also loses its compressive stiffness; laws override it with a
+     * tension-compression split (e.g. volumetric-deviatoric or spectral).
+     *
+     * @param state        particle data (input, not modified)
+     * @param from         first particle, inclusive
+     * @param to           last particle, exclusive
+     * @param tauDegraded  (output) degradable Kirchhoff stress, Pa, 9 per particle at 9(p - from)
+     * @param tauKept      (output) kept Kirchhoff stress, Pa, 9 per particle at 9(p - from)
+     * @param psiDegraded  (output) degradable energy density, J/m^3, at p - from
+     * @param psiKept      (output) kept energy density, J/m^3, at p - from
+     */
+    default void splitKirchhoffStress(MaterialState state, int from, int to, double[] tauDegraded, double[] tauKept,
+                                      double[] psiDegraded, double[] psiKept) {
+        kirchhoffStress(state, from, to, tauDegraded);
+        energyDensity(state, from, to, psiDegraded);
+        java.util.Arrays.fill(tauKept, 0, 9 * (to - from), 0.0);
+        java.util.Arrays.fill(psiKept, 0, to - from, 0.0);
+    }
+
+    /**
      * Whether {@link #projectDeformation} does anything. Tells the truth: the solver skips the call when false.
      *
      * @return true for laws with a return mapping (plasticity)

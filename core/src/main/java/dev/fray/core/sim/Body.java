@@ -1,8 +1,14 @@
 package dev.fray.core.sim;
 
 import dev.fray.core.boundary.Shape;
+import dev.fray.core.damage.DamageModel;
+import dev.fray.core.particles.ChannelField;
 import dev.fray.core.error.Checks;
 import dev.fray.core.material.MaterialLaw;
+
+import java.util.Collections;
+import java.util.LinkedHashMap;
+import java.util.Map;
 
 /**
  * A solid body: a shape filled with particles of one material. Immutable; build with {@link #named(String)}.
@@ -20,9 +26,13 @@ import dev.fray.core.material.MaterialLaw;
  * @param linearVelocity  initial velocity (3 values, m/s)
  * @param angularVelocity initial angular velocity about the shape's bounds centre (3 values, rad/s)
  * @param velocityField   initial velocity as a function of position, added to the above; may be null
+ * @param damage          damage model, or null for a body that never breaks
+ * @param initialChannels initial values of channels (declared by the law or damage model) as functions of
+ *                        position, applied after sampling in insertion order
  */
 public record Body(String name, Shape shape, MaterialLaw material, double spacing, double jitter, long seed,
-                   double[] linearVelocity, double[] angularVelocity, VelocityField velocityField) {
+                   double[] linearVelocity, double[] angularVelocity, VelocityField velocityField,
+                   DamageModel damage, Map<String, ChannelField> initialChannels) {
     /** Validates the fields. */
     public Body {
         Checks.notNull("body name", name);
@@ -35,6 +45,8 @@ public record Body(String name, Shape shape, MaterialLaw material, double spacin
         Checks.inRange(f + "jitter (fraction of spacing)", jitter, 0, false, 0.5, false);
         linearVelocity = vec(f + "velocity (m/s)", linearVelocity);
         angularVelocity = vec(f + "angularVelocity (rad/s)", angularVelocity);
+        initialChannels = initialChannels == null ? Map.of()
+                : Collections.unmodifiableMap(new LinkedHashMap<>(initialChannels));
     }
 
     private static double[] vec(String field, double[] v) {
@@ -82,6 +94,8 @@ public record Body(String name, Shape shape, MaterialLaw material, double spacin
         private final double[] v = new double[3];
         private final double[] w = new double[3];
         private VelocityField field;
+        private DamageModel damage;
+        private final Map<String, ChannelField> channels = new LinkedHashMap<>();
 
         private Builder(String name) {
             this.name = name;
@@ -167,9 +181,28 @@ public record Body(String name, Shape shape, MaterialLaw material, double spacin
             return this;
         }
 
+        /**
+         * @param model damage model, or null for none
+         * @return this
+         */
+        public Builder damage(DamageModel model) {
+            this.damage = model;
+            return this;
+        }
+
+        /**
+         * @param channel name of a channel declared by the body's law or damage model
+         * @param f       its initial value as a function of position
+         * @return this
+         */
+        public Builder initialChannel(String channel, ChannelField f) {
+            channels.put(channel, f);
+            return this;
+        }
+
         /** @return the body */
         public Body build() {
-            return new Body(name, shape, material, spacing, jitter, seed, v, w, field);
+            return new Body(name, shape, material, spacing, jitter, seed, v, w, field, damage, channels);
         }
     }
 }

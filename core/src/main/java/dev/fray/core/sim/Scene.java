@@ -42,6 +42,8 @@ public final class Scene {
     private final double frameRate;
     private final int threads;
     private final double speedLimit;
+    private final double phaseFieldTolerance;
+    private final int phaseFieldMaxIterations;
 
     private Scene(Builder b) {
         domain = b.domain;
@@ -59,6 +61,8 @@ public final class Scene {
         frameRate = b.frameRate;
         threads = b.threads;
         speedLimit = b.speedLimit;
+        phaseFieldTolerance = b.phaseFieldTolerance;
+        phaseFieldMaxIterations = b.phaseFieldMaxIterations;
     }
 
     /** @return a new builder with the defaults */
@@ -141,6 +145,16 @@ public final class Scene {
         return speedLimit;
     }
 
+    /** @return relative residual at which the phase-field conjugate-gradient solve stops */
+    public double phaseFieldTolerance() {
+        return phaseFieldTolerance;
+    }
+
+    /** @return iteration cap of the phase-field solve per step */
+    public int phaseFieldMaxIterations() {
+        return phaseFieldMaxIterations;
+    }
+
     /** @return a builder holding this scene's settings, to derive a variant */
     public Builder toBuilder() {
         Builder b = new Builder();
@@ -159,6 +173,8 @@ public final class Scene {
         b.frameRate = frameRate;
         b.threads = threads;
         b.speedLimit = speedLimit;
+        b.phaseFieldTolerance = phaseFieldTolerance;
+        b.phaseFieldMaxIterations = phaseFieldMaxIterations;
         return b;
     }
 
@@ -180,6 +196,8 @@ public final class Scene {
         private double frameRate = DEFAULT_FRAME_RATE;
         private int threads = Runtime.getRuntime().availableProcessors();
         private double speedLimit = Double.NaN;
+        private double phaseFieldTolerance = 1e-6;
+        private int phaseFieldMaxIterations = 200;
 
         private Builder() {
         }
@@ -341,6 +359,17 @@ public final class Scene {
         }
 
         /**
+         * @param relativeTolerance relative residual at which the phase-field solve stops, (0, 1)
+         * @param maxIterations     iteration cap per step, 1 to 100000
+         * @return this
+         */
+        public Builder phaseFieldSolver(double relativeTolerance, int maxIterations) {
+            this.phaseFieldTolerance = relativeTolerance;
+            this.phaseFieldMaxIterations = maxIterations;
+            return this;
+        }
+
+        /**
          * Validates and freezes the scene.
          *
          * @return the scene
@@ -381,6 +410,8 @@ public final class Scene {
             if (!Double.isNaN(speedLimit)) {
                 Checks.positive("speedLimit (m/s)", speedLimit);
             }
+            Checks.inRange("phaseFieldTolerance", phaseFieldTolerance, 0, true, 1, true);
+            Checks.inRange("phaseFieldMaxIterations", phaseFieldMaxIterations, 1, 100000);
             Set<String> names = new HashSet<>();
             for (Body b : bodies) {
                 if (!names.add(b.name())) {

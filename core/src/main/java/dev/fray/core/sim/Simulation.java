@@ -6,6 +6,7 @@ import dev.fray.core.boundary.Grip;
 import dev.fray.core.boundary.Motion;
 import dev.fray.core.boundary.Obstacle;
 import dev.fray.core.boundary.Shape;
+import dev.fray.core.damage.DamageModel;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.error.SimulationDivergedException;
@@ -14,6 +15,7 @@ import dev.fray.core.grid.SparseGrid;
 import dev.fray.core.kernel.Kernel;
 import dev.fray.core.material.MaterialLaw;
 import dev.fray.core.parallel.Workers;
+import dev.fray.core.particles.ChannelField;
 import dev.fray.core.particles.ChannelSpec;
 import dev.fray.core.particles.ParticleStore;
 
@@ -38,21 +40,24 @@ import java.util.concurrent.CopyOnWriteArrayList;
 public final class Simulation implements SimulationView, AutoCloseable {
     private static final String GRIP_CHANNEL = "grip";
     private static final int DIAG_CHUNK = 4096;
-    private static final int GRID_TASK_BLOCKS = 16;
+    static final int GRID_TASK_BLOCKS = 16;
 
-    private final Scene scene;
-    private final ParticleStore store;
-    private final SparseGrid grid = new SparseGrid();
-    private final Workers workers;
-    private final MaterialLaw[] laws;
+    final Scene scene;
+    final ParticleStore store;
+    final SparseGrid grid = new SparseGrid();
+    final Workers workers;
+    final MaterialLaw[] laws;
+    final DamageModel[] damage;
+    private final boolean phaseField;
+    private final PhaseFieldSolve phaseFieldSolve;
     private final List<String> bodyNames;
-    private final Kernel kernel;
-    private final double dx;
-    private final double invDx;
-    private final double ox, oy, oz;
+    final Kernel kernel;
+    final double dx;
+    final double invDx;
+    final double ox, oy, oz;
     private final double maxWaveSpeed;
     private final double speedLimit;
-    private final Scratch[] scratch;
+    final Scratch[] scratch;
     private final List<StepListener> stepListeners = new CopyOnWriteArrayList<>();
     private final List<FrameListener> frameListeners = new CopyOnWriteArrayList<>();
     private final ParticleView particleView = new View();
@@ -63,15 +68,15 @@ public final class Simulation implements SimulationView, AutoCloseable {
     private final int[] order;
     private int[] ints;
     private final double[][] permScratch = new double[10][];
-    private int blockCount;
-    private long[] blockKeys = new long[64];
-    private int[] blockStart = new int[65];
+    int blockCount;
+    long[] blockKeys = new long[64];
+    int[] blockStart = new int[65];
     private int[] blockCounts = new int[64];
     private int[] blockRank = new int[64];
-    private int[] neighbours = new int[64 * 8];
-    private final int[] colourStart = new int[9];
+    int[] neighbours = new int[64 * 8];
+    final int[] colourStart = new int[9];
     private final int[] colourCursor = new int[9];
-    private int[] colourBlocks = new int[64];
+    int[] colourBlocks = new int[64];
     private double[] blockMaxSpeed = new double[64];
     private int[] blockBad = new int[64];
     private int[] blockFastest = new int[64];
@@ -103,21 +108,39 @@ public final class Simulation implements SimulationView, AutoCloseable {
         this.oz = d.minZ();
         List<Body> bodies = scene.bodies();
         laws = new MaterialLaw[bodies.size()];
+        damage = new DamageModel[bodies.size()];
         List<String> names = new ArrayList<>();
         double c = 0;
+        boolean pf = false;
         for (int b = 0; b < bodies.size(); b++) {
             laws[b] = bodies.get(b).material();
+            damage[b] = bodies.get(b).damage();
             names.add(bodies.get(b).name());
             c = Math.max(c, laws[b].waveSpeed());
+            pf |= damage[b] != null && damage[b].usesPhaseField();
         }
+        phaseField = pf;
         bodyNames = Collections.unmodifiableList(names);
         maxWaveSpeed = c;
         store = sample(scene);
-        for (MaterialLaw law : laws) {
-            for (ChannelSpec spec : law.channels()) {
+        for (int b = 0; b < bodies.size(); b++) {
+            for (ChannelSpec spec : laws[b].channels()) {
                 store.declare(spec);
             }
+            if (damage[b] != null) {
+                boolean hasDamage = false;
+                for (ChannelSpec spec : damage[b].channels()) {
+                    store.declare(spec);
+                    hasDamage |= spec.name().equals(DamageModel.DAMAGE) && spec.width() == 1;
+                }
+                if (!hasDamage) {
+                    throw new InvalidInputException(FrayMessage.INCONSISTENT, "damage model \""
+                            + damage[b].name() + "\"", "must declare the channel \"" + DamageModel.DAMAGE
+                            + "\" of width 1");
+                }
+            }
         }
+        applyInitialChannels(bodies);
         int n = store.size();
         keys = new long[n];
         order = new int[n];
@@ -139,6 +162,39 @@ public final class Simulation implements SimulationView, AutoCloseable {
             scratch[i] = new Scratch();
         }
         maxSpeed = currentMaxSpeed();
+        phaseFieldSolve = phaseField ? new PhaseFieldSolve(this) : null;
+    }
+
+    private void applyInitialChannels(List<Body> bodies) {
+        double[] x = store.position();
+        int[] bodyOf = store.body();
+        for (int b = 0; b < bodies.size(); b++) {
+            for (java.util.Map.Entry<String, ChannelField> e : bodies.get(b).initialChannels().entrySet()) {
+                ChannelSpec spec = store.spec(e.getKey());
+                if (spec == null) {
+                    throw new InvalidInputException(FrayMessage.UNKNOWN_NAME, "channel of body \""
+                            + bodies.get(b).name() + "\"", e.getKey(), store.channelNames());
+                }
+                int w = spec.width();
+                double[] a = store.channel(e.getKey());
+                double[] out = new double[w];
+                for (int p = 0; p < store.size(); p++) {
+                    if (bodyOf[p] != b) {
+                        continue;
+                    }
+                    Arrays.fill(out, spec.initial());
+                    e.getValue().value(x[3 * p], x[3 * p + 1], x[3 * p + 2], out);
+                    for (int k = 0; k < w; k++) {
+                        if (!Double.isFinite(out[k])) {
+                            throw new InvalidInputException(FrayMessage.NOT_FINITE, "initial value of channel \""
+                                    + e.getKey() + "\" of body \"" + bodies.get(b).name() + "\" at particle " + p,
+                                    out[k]);
+                        }
+                    }
+                    System.arraycopy(out, 0, a, w * p, w);
+                }
+            }
+        }
     }
 
     private ParticleStore sample(Scene scene) {
@@ -417,12 +473,56 @@ public final class Simulation implements SimulationView, AutoCloseable {
     // ------------------------------------------------------------------ the step
 
     private void stepOnce(double h) {
+        long t0 = System.nanoTime();
         sortAndActivate();
+        long t1 = System.nanoTime();
         scatter(h);
+        long t2 = System.nanoTime();
         updateGrid(h);
+        long t3 = System.nanoTime();
+        if (phaseFieldSolve != null) {
+            phaseFieldSolve.solve(h);
+        }
+        long t3b = System.nanoTime();
         gather(h);
         checkDivergence(h);
+        long t4 = System.nanoTime();
+        phaseNanos[0] += t1 - t0;
+        phaseNanos[2] += t2 - t1;
+        phaseNanos[3] += t3 - t2;
+        phaseNanos[4] += t3b - t3;
+        phaseNanos[5] += t4 - t3b;
     }
+
+    /**
+     * Wall time spent per phase since the simulation was created, s: sort (sorting and block activation), stress
+     * (material and damage laws, summed over workers and scaled to wall time), scatter (P2G without the stress),
+     * grid (grid update and boundaries), solve (non-local damage), gather (G2P, advection, return mapping).
+     *
+     * @return phase names mapped to seconds, in step order
+     */
+    public java.util.Map<String, Double> phaseSeconds() {
+        long stressCpu = 0;
+        for (Scratch sc : scratch) {
+            stressCpu += sc.stressNanos;
+        }
+        // Stress runs inside the scatter on all workers; attribute its share of the scatter's wall time.
+        long scatterCpu = 0;
+        for (Scratch sc : scratch) {
+            scatterCpu += sc.scatterNanos;
+        }
+        double stressShare = scatterCpu > 0 ? (double) stressCpu / scatterCpu : 0;
+        java.util.Map<String, Double> m = new java.util.LinkedHashMap<>();
+        m.put("sort", phaseNanos[0] * 1e-9);
+        m.put("stress", phaseNanos[2] * stressShare * 1e-9);
+        m.put("scatter", phaseNanos[2] * (1 - stressShare) * 1e-9);
+        m.put("grid", phaseNanos[3] * 1e-9);
+        m.put("solve", phaseNanos[4] * 1e-9);
+        m.put("gather", phaseNanos[5] * 1e-9);
+        return m;
+    }
+
+    private final long[] phaseNanos = new long[6];
 
     private int blockOf(double xi) {
         return kernel.base(xi) >> 2;
@@ -532,6 +632,12 @@ public final class Simulation implements SimulationView, AutoCloseable {
     }
 
     private void scatterBlock(Scratch sc, int r, double h) {
+        long t0 = System.nanoTime();
+        scatterParticles(sc, r, h);
+        sc.scatterNanos += System.nanoTime() - t0;
+    }
+
+    private void scatterParticles(Scratch sc, int r, double h) {
         int start = blockStart[r];
         int end = blockStart[r + 1];
         long key = blockKeys[r];
@@ -558,7 +664,9 @@ public final class Simulation implements SimulationView, AutoCloseable {
                 runEnd++;
             }
             double[] tau = sc.tau(runEnd - runStart);
-            laws[b].kirchhoffStress(store, runStart, runEnd, tau);
+            long s0 = System.nanoTime();
+            stress(sc, b, runStart, runEnd, h, tau);
+            sc.stressNanos += System.nanoTime() - s0;
             for (int p = runStart; p < runEnd; p++) {
                 double xi = (x[3 * p] - ox) * invDx, yi = (x[3 * p + 1] - oy) * invDx;
                 double zi = (x[3 * p + 2] - oz) * invDx;
@@ -611,6 +719,29 @@ public final class Simulation implements SimulationView, AutoCloseable {
                 }
             }
             runStart = runEnd;
+        }
+    }
+
+    /** Kirchhoff stress of particles [from, to) of body b, degraded by its damage model if it has one. */
+    private void stress(Scratch sc, int b, int from, int to, double h, double[] tau) {
+        DamageModel dm = damage[b];
+        if (dm == null) {
+            laws[b].kirchhoffStress(store, from, to, tau);
+            return;
+        }
+        int n = to - from;
+        double[] kept = sc.kept(n);
+        double[] psiD = sc.psiDegraded(n);
+        double[] psiK = sc.psiKept(n);
+        double[] g = sc.g(n);
+        laws[b].splitKirchhoffStress(store, from, to, tau, kept, psiD, psiK);
+        dm.update(store, from, to, h, tau, kept, psiD, g);
+        for (int i = 0; i < n; i++) {
+            double gi = g[i];
+            int o = 9 * i;
+            for (int k = 0; k < 9; k++) {
+                tau[o + k] = gi * tau[o + k] + kept[o + k];
+            }
         }
     }
 
@@ -980,14 +1111,27 @@ public final class Simulation implements SimulationView, AutoCloseable {
                 ly += mp * (rz * vx - rx * vz + inertia * (c[9 * p + 2] - c[9 * p + 6]));
                 lz += mp * (rx * vy - ry * vx + inertia * (c[9 * p + 3] - c[9 * p + 1]));
             }
-            double[] psi = scratch[w].tau(b - a);
+            Scratch sc = scratch[w];
+            double[] psi = sc.psiKept(b - a);
             for (int runStart = a; runStart < b; ) {
                 int bd = body[runStart];
                 int runEnd = runStart + 1;
                 while (runEnd < b && body[runEnd] == bd) {
                     runEnd++;
                 }
-                laws[bd].energyDensity(store, runStart, runEnd, psi);
+                if (damage[bd] == null) {
+                    laws[bd].energyDensity(store, runStart, runEnd, psi);
+                } else {
+                    // psi = g psi_degraded + psi_kept, the energy the degraded stress derives from.
+                    int len = runEnd - runStart;
+                    double[] psiD = sc.psiDegraded(len);
+                    double[] g = sc.g(len);
+                    laws[bd].splitKirchhoffStress(store, runStart, runEnd, sc.tau(len), sc.kept(len), psiD, psi);
+                    damage[bd].degradation(store, runStart, runEnd, g);
+                    for (int i = 0; i < len; i++) {
+                        psi[i] += g[i] * psiD[i];
+                    }
+                }
                 for (int p = runStart; p < runEnd; p++) {
                     ee += vol[p] * psi[p - runStart];
                 }
@@ -1022,15 +1166,67 @@ public final class Simulation implements SimulationView, AutoCloseable {
     }
 
     /** Per-worker scratch space; never shared between threads. */
-    private static final class Scratch {
-        final double[] wx = new double[4];
-        final double[] wy = new double[4];
-        final double[] wz = new double[4];
-        final int[] nx = new int[4];
-        final int[] ny = new int[4];
-        final int[] nz = new int[4];
+    static final class Scratch {
+        final double[] wx = new double[16];
+        final double[] wy = new double[16];
+        final double[] wz = new double[16];
+        final double[] dwx = new double[16];
+        final double[] dwy = new double[16];
+        final double[] dwz = new double[16];
+        final int[] nx = new int[16];
+        final int[] ny = new int[16];
+        final int[] nz = new int[16];
         final double[] normal = new double[9];
+        final int[] node = new int[64];
+        final double[] w = new double[64];
+        final double[] gx = new double[64];
+        final double[] gy = new double[64];
+        final double[] gz = new double[64];
+        // Padding keeps the small arrays of different workers off each other's cache lines.
+        final double[] pad = new double[16];
         private double[] tau = new double[9 * 1024];
+        private double[] kept = new double[0];
+        private double[] psiDegraded = new double[0];
+        private double[] psiKept = new double[0];
+        private double[] g = new double[0];
+        double[] work = new double[0];
+
+        double[] kept(int particles) {
+            if (kept.length < 9 * particles) {
+                kept = new double[Math.max(9 * particles, 2 * kept.length)];
+            }
+            return kept;
+        }
+
+        double[] psiDegraded(int particles) {
+            if (psiDegraded.length < particles) {
+                psiDegraded = new double[Math.max(particles, 2 * psiDegraded.length)];
+            }
+            return psiDegraded;
+        }
+
+        double[] psiKept(int particles) {
+            if (psiKept.length < particles) {
+                psiKept = new double[Math.max(particles, 2 * psiKept.length)];
+            }
+            return psiKept;
+        }
+
+        double[] g(int particles) {
+            if (g.length < particles) {
+                g = new double[Math.max(particles, 2 * g.length)];
+            }
+            return g;
+        }
+
+        double[] work(int size) {
+            if (work.length < size) {
+                work = new double[Math.max(size, 2 * work.length)];
+            }
+            return work;
+        }
+        long stressNanos;
+        long scatterNanos;
 
         double[] tau(int particles) {
             if (tau.length < 9 * particles) {
