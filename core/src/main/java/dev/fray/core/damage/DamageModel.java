@@ -27,6 +27,19 @@ public interface DamageModel {
     /** @return the model's registry name, e.g. "phase-field-at2" */
     String name();
 
+    /**
+     * Adapts the model to the grid it runs on: a model whose length scale defaults from the cell size returns a
+     * copy with it filled in, and a model whose length scale is too small for the grid throws, saying why. Called
+     * once per body when a simulation is created. Default: returns this.
+     *
+     * @param cellSize grid cell size dx, m
+     * @return the model to use
+     * @throws dev.fray.core.error.InvalidInputException if the model cannot be resolved on this grid
+     */
+    default DamageModel resolvedFor(double cellSize) {
+        return this;
+    }
+
     /** @return the channels the model needs, including {@link #DAMAGE} */
     List<ChannelSpec> channels();
 

@@ -16,19 +16,28 @@ package dev.fray.core.sim;
  * @param angularY        angular momentum y
  * @param angularZ        angular momentum z
  * @param maxSpeed        largest particle speed, m/s
+ * @param potentialEnergy gravitational potential energy -sum m g . x (zero at the origin), J
+ * @param boundaryWork    kinetic energy put in by grips and moving obstacles minus that taken out by walls,
+ *                        obstacles and friction, summed since the start, J
  */
 public record Diagnostics(long step, double time, double dt, double kineticEnergy, double elasticEnergy,
                           double momentumX, double momentumY, double momentumZ,
-                          double angularX, double angularY, double angularZ, double maxSpeed) {
+                          double angularX, double angularY, double angularZ, double maxSpeed,
+                          double potentialEnergy, double boundaryWork) {
     /** Column names for tabular output, in record order, with SI units. */
     public static final String[] COLUMNS = {"step", "time_s", "dt_s", "kinetic_energy_J", "elastic_energy_J",
         "momentum_x_kg_m_per_s", "momentum_y_kg_m_per_s", "momentum_z_kg_m_per_s",
         "angular_momentum_x_kg_m2_per_s", "angular_momentum_y_kg_m2_per_s", "angular_momentum_z_kg_m2_per_s",
-        "max_speed_m_per_s"};
+        "max_speed_m_per_s", "potential_energy_J", "boundary_work_J"};
+
+    /** @return kinetic + elastic + potential energy, J */
+    public double totalEnergy() {
+        return kineticEnergy + elasticEnergy + potentialEnergy;
+    }
 
     /** @return the values in {@link #COLUMNS} order */
     public double[] values() {
         return new double[] {step, time, dt, kineticEnergy, elasticEnergy, momentumX, momentumY, momentumZ,
-            angularX, angularY, angularZ, maxSpeed};
+            angularX, angularY, angularZ, maxSpeed, potentialEnergy, boundaryWork};
     }
 }

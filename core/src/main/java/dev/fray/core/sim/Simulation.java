@@ -114,7 +114,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         boolean pf = false;
         for (int b = 0; b < bodies.size(); b++) {
             laws[b] = bodies.get(b).material();
-            damage[b] = bodies.get(b).damage();
+            damage[b] = bodies.get(b).damage() == null ? null : bodies.get(b).damage().resolvedFor(dx);
             names.add(bodies.get(b).name());
             c = Math.max(c, laws[b].waveSpeed());
             pf |= damage[b] != null && damage[b].usesPhaseField();
@@ -765,8 +765,13 @@ public final class Simulation implements SimulationView, AutoCloseable {
         List<Contact> walls = scene.walls();
         double[] wallAt = {d.minX(), d.maxX(), d.minY(), d.maxY(), d.minZ(), d.maxZ()};
         double tol = 1e-6 * dx;
-        workers.forEach((gb + GRID_TASK_BLOCKS - 1) / GRID_TASK_BLOCKS, (w, t) -> {
+        int tasks = (gb + GRID_TASK_BLOCKS - 1) / GRID_TASK_BLOCKS;
+        if (boundaryPartial.length < tasks) {
+            boundaryPartial = new double[Math.max(tasks, 2 * boundaryPartial.length)];
+        }
+        workers.forEach(tasks, (w, t) -> {
             Scratch sc = scratch[w];
+            double work = 0;
             double[] gm = grid.mass();
             double[] gv = grid.momentum();
             int[] gg = grid.grip();
@@ -791,33 +796,48 @@ public final class Simulation implements SimulationView, AutoCloseable {
                     double px = ox + (bx + (l >> 4)) * dx;
                     double py = oy + (by + ((l >> 2) & 3)) * dx;
                     double pz = oz + (bz + (l & 3)) * dx;
+                    double vx0 = gv[n3], vy0 = gv[n3 + 1], vz0 = gv[n3 + 2];
                     int grip = gg[node];
                     if (grip != Integer.MAX_VALUE) {
                         frameVelocity(grips.get(grip).motion(), gripPose, 12 * grip, px, py, pz, gv, n3);
-                        continue;
+                    } else {
+                        applyWallsAndObstacles(walls, wallAt, tol, obstacles, px, py, pz, gv, n3, nrm);
                     }
-                    for (int f = 0; f < 6; f++) {
-                        Contact c = walls.get(f);
-                        if (c.type() == Contact.Type.OPEN) {
-                            continue;
-                        }
-                        int axis = f >> 1;
-                        double coord = axis == 0 ? px : axis == 1 ? py : pz;
-                        boolean lower = (f & 1) == 0;
-                        if (lower ? coord - wallAt[f] <= tol : wallAt[f] - coord <= tol) {
-                            nrm[0] = 0;
-                            nrm[1] = 0;
-                            nrm[2] = 0;
-                            nrm[axis] = lower ? 1 : -1;
-                            c.apply(gv, n3, nrm, 0, 0, 0, 0);
-                        }
-                    }
-                    for (int o = 0; o < obstacles.size(); o++) {
-                        applyObstacle(obstacles.get(o), 12 * o, px, py, pz, gv, n3, nrm);
-                    }
+                    // Kinetic energy the boundaries put in (grips, moving obstacles) or took out (walls, friction).
+                    work += 0.5 * m * (gv[n3] * gv[n3] + gv[n3 + 1] * gv[n3 + 1] + gv[n3 + 2] * gv[n3 + 2]
+                            - vx0 * vx0 - vy0 * vy0 - vz0 * vz0);
                 }
             }
+            boundaryPartial[t] = work;
         });
+        double sum = 0;
+        for (int t = 0; t < tasks; t++) {
+            sum += boundaryPartial[t];
+        }
+        boundaryWork += sum;
+    }
+
+    private void applyWallsAndObstacles(List<Contact> walls, double[] wallAt, double tol, List<Obstacle> obstacles,
+                                        double px, double py, double pz, double[] gv, int n3, double[] nrm) {
+        for (int f = 0; f < 6; f++) {
+            Contact c = walls.get(f);
+            if (c.type() == Contact.Type.OPEN) {
+                continue;
+            }
+            int axis = f >> 1;
+            double coord = axis == 0 ? px : axis == 1 ? py : pz;
+            boolean lower = (f & 1) == 0;
+            if (lower ? coord - wallAt[f] <= tol : wallAt[f] - coord <= tol) {
+                nrm[0] = 0;
+                nrm[1] = 0;
+                nrm[2] = 0;
+                nrm[axis] = lower ? 1 : -1;
+                c.apply(gv, n3, nrm, 0, 0, 0, 0);
+            }
+        }
+        for (int o = 0; o < obstacles.size(); o++) {
+            applyObstacle(obstacles.get(o), 12 * o, px, py, pz, gv, n3, nrm);
+        }
     }
 
     private void applyObstacle(Obstacle ob, int q, double px, double py, double pz, double[] gv, int n3,
@@ -841,6 +861,8 @@ public final class Simulation implements SimulationView, AutoCloseable {
     }
 
     private final double[] scratchPose = new double[12];
+    private double[] boundaryPartial = new double[64];
+    private double boundaryWork;
 
     /** Velocity of a moving frame at a point: v + w x (x - c(t)). */
     private static void frameVelocity(Motion mo, double[] pose, int q, double px, double py, double pz,
@@ -1086,6 +1108,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         int tasks = (n + DIAG_CHUNK - 1) / DIAG_CHUNK;
         double[] part = new double[10 * tasks];
         double inertia = kernel.inertia(dx);
+        double[] gravity = scene.gravity();
         workers.forEach(tasks, (w, t) -> {
             int a = t * DIAG_CHUNK;
             int b = Math.min(n, a + DIAG_CHUNK);
@@ -1095,13 +1118,14 @@ public final class Simulation implements SimulationView, AutoCloseable {
             double[] m = store.mass();
             double[] vol = store.volume();
             int[] body = store.body();
-            double ke = 0, ee = 0, px = 0, py = 0, pz = 0, lx = 0, ly = 0, lz = 0, vmax = 0;
+            double ke = 0, ee = 0, px = 0, py = 0, pz = 0, lx = 0, ly = 0, lz = 0, vmax = 0, pe = 0;
             for (int p = a; p < b; p++) {
                 double mp = m[p];
                 double vx = v[3 * p], vy = v[3 * p + 1], vz = v[3 * p + 2];
                 double rx = x[3 * p], ry = x[3 * p + 1], rz = x[3 * p + 2];
                 double s2 = vx * vx + vy * vy + vz * vz;
                 ke += 0.5 * mp * s2;
+                pe -= mp * (gravity[0] * rx + gravity[1] * ry + gravity[2] * rz);
                 vmax = Math.max(vmax, s2);
                 px += mp * vx;
                 py += mp * vy;
@@ -1147,6 +1171,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
             part[o + 6] = ly;
             part[o + 7] = lz;
             part[o + 8] = vmax;
+            part[o + 9] = pe;
         });
         double[] sum = new double[10];
         for (int t = 0; t < tasks; t++) {
@@ -1154,9 +1179,10 @@ public final class Simulation implements SimulationView, AutoCloseable {
                 sum[k] += part[10 * t + k];
             }
             sum[8] = Math.max(sum[8], part[10 * t + 8]);
+            sum[9] += part[10 * t + 9];
         }
         return new Diagnostics(step, time, dt, sum[0], sum[1], sum[2], sum[3], sum[4], sum[5], sum[6], sum[7],
-                Math.sqrt(sum[8]));
+                Math.sqrt(sum[8]), sum[9], boundaryWork);
     }
 
     /** Stops the worker threads. The simulation cannot run afterwards. */
