@@ -1,0 +1,183 @@
+package dev.fray.damage.elastic;
+
+import dev.fray.core.error.Checks;
+import dev.fray.core.material.MaterialLaw;
+import dev.fray.core.material.MaterialState;
+import dev.fray.core.math.Mat3;
+import dev.fray.core.math.Svd3;
+import dev.fray.core.math.Vec3;
+
+import java.util.Arrays;
+
+/**
+ * Fixed corotated elasticity (Stomakhin et al. 2012, <i>Energetically consistent invertible elasticity</i>):
+ * <pre>
+ *   psi = mu ||F - R||_F^2 + lambda/2 (J - 1)^2
+ *   P   = 2 mu (F - R) + lambda (J - 1) J F^-T
+ *   tau = 2 mu (F - R) F^T + lambda (J - 1) J I
+ * </pre>
+ * with F = R S the polar decomposition, J = det F, and mu, lambda the Lamé parameters; stresses in Pa, psi in
+ * J/m^3.
+ *
+ * <p>Inversion: R is taken as a proper rotation also when det F &lt; 0 (the convention of {@link Svd3}, after
+ * Irving et al. 2004), and J F^-T is formed as the cofactor matrix cof(F), which is finite for singular F. So the
+ * law needs no clamp: energy and stress are defined and finite for every finite F, and the volume term pushes an
+ * inverted particle back. If the decomposition fails, which happens only for non-finite F, the outputs of that
+ * particle are NaN so the solver's NaN guard reports it.
+ *
+ * <p>Immutable and thread-safe; no channels.
+ */
+public final class FixedCorotated implements MaterialLaw {
+    /** Registry name. */
+    public static final String NAME = "fixed-corotated";
+
+    private final ElasticParameters parameters;
+    private final double mu;
+    private final double lambda;
+
+    /**
+     * @param parameters validated elastic constants (input, kept)
+     * @throws dev.fray.core.error.InvalidInputException if parameters is null
+     */
+    public FixedCorotated(ElasticParameters parameters) {
+        this.parameters = Checks.notNull("elastic parameters", parameters);
+        this.mu = parameters.mu();
+        this.lambda = parameters.lambda();
+    }
+
+    /** @return the elastic constants this law was built from */
+    public ElasticParameters parameters() {
+        return parameters;
+    }
+
+    /** {@inheritDoc} */
+    @Override
+    public String name() {
+        return NAME;
+    }
+
+    /** {@inheritDoc} */
+    @Override
+    public double density() {
+        return parameters.density();
+    }
+
+    /** {@inheritDoc} Here the P-wave speed sqrt((lambda + 2 mu) / rho). */
+    @Override
+    public double waveSpeed() {
+        return parameters.pWaveSpeed();
+    }
+
+    /** {@inheritDoc} Uses ||F - R||_F^2 = sum (sigma_i - 1)^2 over the signed singular values. */
+    @Override
+    public void energyDensity(MaterialState state, int from, int to, double[] out) {
+        double[] f = state.deformation();
+        Mat3 a = new Mat3();
+        Mat3 u = new Mat3();
+        Mat3 v = new Mat3();
+        Vec3 s = new Vec3();
+        for (int p = from; p < to; p++) {
+            a.load(f, 9 * p);
+            if (!Svd3.decompose(a, u, s, v)) {
+                out[p - from] = Double.NaN;
+                continue;
+            }
+            double d0 = s.x - 1.0, d1 = s.y - 1.0, d2 = s.z - 1.0;
+            double jm1 = det(a) - 1.0;
+            out[p - from] = mu * (d0 * d0 + d1 * d1 + d2 * d2) + 0.5 * lambda * jm1 * jm1;
+        }
+    }
+
+    /** {@inheritDoc} */
+    @Override
+    public void firstPiolaKirchhoff(MaterialState state, int from, int to, double[] out) {
+        double[] f = state.deformation();
+        Mat3 a = new Mat3();
+        Mat3 r = new Mat3();
+        for (int p = from; p < to; p++) {
+            int o = 9 * (p - from);
+            a.load(f, 9 * p);
+            if (!Svd3.rotation(a, r)) {
+                Arrays.fill(out, o, o + 9, Double.NaN);
+                continue;
+            }
+            double f00 = a.m00, f01 = a.m01, f02 = a.m02;
+            double f10 = a.m10, f11 = a.m11, f12 = a.m12;
+            double f20 = a.m20, f21 = a.m21, f22 = a.m22;
+            // cof(F) = J F^-T, finite for singular F
+            double c00 = f11 * f22 - f12 * f21, c01 = f12 * f20 - f10 * f22, c02 = f10 * f21 - f11 * f20;
+            double c10 = f02 * f21 - f01 * f22, c11 = f00 * f22 - f02 * f20, c12 = f01 * f20 - f00 * f21;
+            double c20 = f01 * f12 - f02 * f11, c21 = f02 * f10 - f00 * f12, c22 = f00 * f11 - f01 * f10;
+            double b = lambda * (f00 * c00 + f01 * c01 + f02 * c02 - 1.0);
+            double m2 = 2.0 * mu;
+            out[o] = m2 * (f00 - r.m00) + b * c00;
+            out[o + 1] = m2 * (f01 - r.m01) + b * c01;
+            out[o + 2] = m2 * (f02 - r.m02) + b * c02;
+            out[o + 3] = m2 * (f10 - r.m10) + b * c10;
+            out[o + 4] = m2 * (f11 - r.m11) + b * c11;
+            out[o + 5] = m2 * (f12 - r.m12) + b * c12;
+            out[o + 6] = m2 * (f20 - r.m20) + b * c20;
+            out[o + 7] = m2 * (f21 - r.m21) + b * c21;
+            out[o + 8] = m2 * (f22 - r.m22) + b * c22;
+        }
+    }
+
+    /**
+     * {@inheritDoc} Closed form from F = U diag(sigma) V^T: (F - R) F^T = U diag((sigma_i - 1) sigma_i) U^T, so
+     * tau = U diag(2 mu (sigma_i - 1) sigma_i) U^T + lambda (J - 1) J I, symmetric by construction.
+     */
+    @Override
+    public void kirchhoffStress(MaterialState state, int from, int to, double[] out) {
+        double[] f = state.deformation();
+        Mat3 a = new Mat3();
+        Mat3 u = new Mat3();
+        Mat3 v = new Mat3();
+        Vec3 s = new Vec3();
+        for (int p = from; p < to; p++) {
+            int o = 9 * (p - from);
+            a.load(f, 9 * p);
+            if (!Svd3.decompose(a, u, s, v)) {
+                Arrays.fill(out, o, o + 9, Double.NaN);
+                continue;
+            }
+            double j = det(a);
+            double iso = lambda * (j - 1.0) * j;
+            double m2 = 2.0 * mu;
+            symmetricUDUt(u, m2 * (s.x - 1.0) * s.x, m2 * (s.y - 1.0) * s.y, m2 * (s.z - 1.0) * s.z, iso, out, o);
+        }
+    }
+
+    /** Determinant from the entries; near rest this is more accurate than the product of singular values. */
+    private static double det(Mat3 a) {
+        return a.m00 * (a.m11 * a.m22 - a.m12 * a.m21) + a.m01 * (a.m12 * a.m20 - a.m10 * a.m22)
+                + a.m02 * (a.m10 * a.m21 - a.m11 * a.m20);
+    }
+
+    /**
+     * Writes U diag(d) U^T + iso I at out[o..o+8], computing the upper triangle once so the result is exactly
+     * symmetric. Package-private so the Hencky law shares it.
+     */
+    static void symmetricUDUt(Mat3 u, double d0, double d1, double d2, double iso, double[] out, int o) {
+        double t00 = d0 * u.m00 * u.m00 + d1 * u.m01 * u.m01 + d2 * u.m02 * u.m02 + iso;
+        double t01 = d0 * u.m00 * u.m10 + d1 * u.m01 * u.m11 + d2 * u.m02 * u.m12;
+        double t02 = d0 * u.m00 * u.m20 + d1 * u.m01 * u.m21 + d2 * u.m02 * u.m22;
+        double t11 = d0 * u.m10 * u.m10 + d1 * u.m11 * u.m11 + d2 * u.m12 * u.m12 + iso;
+        double t12 = d0 * u.m10 * u.m20 + d1 * u.m11 * u.m21 + d2 * u.m12 * u.m22;
+        double t22 = d0 * u.m20 * u.m20 + d1 * u.m21 * u.m21 + d2 * u.m22 * u.m22 + iso;
+        out[o] = t00;
+        out[o + 1] = t01;
+        out[o + 2] = t02;
+        out[o + 3] = t01;
+        out[o + 4] = t11;
+        out[o + 5] = t12;
+        out[o + 6] = t02;
+        out[o + 7] = t12;
+        out[o + 8] = t22;
+    }
+
+    /** @return the law's name and constants, for diagnostics */
+    @Override
+    public String toString() {
+        return NAME + parameters;
+    }
+}

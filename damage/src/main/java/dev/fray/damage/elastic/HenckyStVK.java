@@ -1,0 +1,177 @@
+package dev.fray.damage.elastic;
+
+import dev.fray.core.error.Checks;
+import dev.fray.core.material.MaterialLaw;
+import dev.fray.core.material.MaterialState;
+import dev.fray.core.math.Mat3;
+import dev.fray.core.math.Svd3;
+import dev.fray.core.math.Vec3;
+
+import java.util.Arrays;
+
+/**
+ * St. Venant-Kirchhoff elasticity on Hencky (logarithmic) strain: Hooke's law applied to the principal
+ * logarithmic stretches. With F = U diag(s) V^T,
+ * <pre>
+ *   psi = mu sum_i (ln s_i)^2 + lambda/2 (sum_i ln s_i)^2
+ *   P   = U diag(2 mu ln s_i / s_i + lambda sum_j ln s_j / s_i) V^T
+ *   tau = U diag(2 mu ln s_i + lambda sum_j ln s_j) U^T
+ * </pre>
+ * with mu, lambda the Lamé parameters; stresses in Pa, psi in J/m^3.
+ *
+ * <p>Inversion: the SVD of {@link Svd3} makes U and V rotations and puts the sign of det F on the smallest
+ * singular value, so an inverted F has s_3 &lt; 0, where ln has no value. Below {@link #STRETCH_FLOOR} the law
+ * continues ln s by its tangent line at the floor, g(s) = ln(STRETCH_FLOOR) + (s - STRETCH_FLOOR) / STRETCH_FLOOR,
+ * in energy and stress alike. The energy stays continuously differentiable, P = dpsi/dF holds everywhere,
+ * squeezing a direction through zero keeps costing energy, and the solver never sees NaN. Above the floor the
+ * law is exact. If the decomposition fails, which happens only for non-finite F, the outputs of that particle
+ * are NaN so the solver's NaN guard reports it.
+ *
+ * <p>Immutable and thread-safe; no channels.
+ */
+public final class HenckyStVK implements MaterialLaw {
+    /** Registry name. */
+    public static final String NAME = "stvk-hencky";
+
+    /**
+     * Principal stretch below which ln s is continued linearly (dimensionless). A principal direction squeezed to a
+     * millionth of its length is far outside any meaningful use, so the exact law covers every physical state.
+     */
+    public static final double STRETCH_FLOOR = 1e-6;
+
+    private static final double LOG_STRETCH_FLOOR = Math.log(STRETCH_FLOOR);
+
+    private final ElasticParameters parameters;
+    private final double mu;
+    private final double lambda;
+
+    /**
+     * @param parameters validated elastic constants (input, kept)
+     * @throws dev.fray.core.error.InvalidInputException if parameters is null
+     */
+    public HenckyStVK(ElasticParameters parameters) {
+        this.parameters = Checks.notNull("elastic parameters", parameters);
+        this.mu = parameters.mu();
+        this.lambda = parameters.lambda();
+    }
+
+    /** @return the elastic constants this law was built from */
+    public ElasticParameters parameters() {
+        return parameters;
+    }
+
+    /** {@inheritDoc} */
+    @Override
+    public String name() {
+        return NAME;
+    }
+
+    /** {@inheritDoc} */
+    @Override
+    public double density() {
+        return parameters.density();
+    }
+
+    /** {@inheritDoc} Here the P-wave speed sqrt((lambda + 2 mu) / rho). */
+    @Override
+    public double waveSpeed() {
+        return parameters.pWaveSpeed();
+    }
+
+    /** {@inheritDoc} */
+    @Override
+    public void energyDensity(MaterialState state, int from, int to, double[] out) {
+        double[] f = state.deformation();
+        Mat3 a = new Mat3();
+        Mat3 u = new Mat3();
+        Mat3 v = new Mat3();
+        Vec3 s = new Vec3();
+        for (int p = from; p < to; p++) {
+            a.load(f, 9 * p);
+            if (!Svd3.decompose(a, u, s, v)) {
+                out[p - from] = Double.NaN;
+                continue;
+            }
+            double g0 = logStretch(s.x), g1 = logStretch(s.y), g2 = logStretch(s.z);
+            double tr = g0 + g1 + g2;
+            out[p - from] = mu * (g0 * g0 + g1 * g1 + g2 * g2) + 0.5 * lambda * tr * tr;
+        }
+    }
+
+    /** {@inheritDoc} */
+    @Override
+    public void firstPiolaKirchhoff(MaterialState state, int from, int to, double[] out) {
+        double[] f = state.deformation();
+        Mat3 a = new Mat3();
+        Mat3 u = new Mat3();
+        Mat3 v = new Mat3();
+        Vec3 s = new Vec3();
+        for (int p = from; p < to; p++) {
+            int o = 9 * (p - from);
+            a.load(f, 9 * p);
+            if (!Svd3.decompose(a, u, s, v)) {
+                Arrays.fill(out, o, o + 9, Double.NaN);
+                continue;
+            }
+            double g0 = logStretch(s.x), g1 = logStretch(s.y), g2 = logStretch(s.z);
+            double ltr = lambda * (g0 + g1 + g2);
+            // dpsi/ds_i = (2 mu g_i + lambda tr g) g'(s_i), with g'(s) = 1 / max(s, floor)
+            double d0 = (2.0 * mu * g0 + ltr) / Math.max(s.x, STRETCH_FLOOR);
+            double d1 = (2.0 * mu * g1 + ltr) / Math.max(s.y, STRETCH_FLOOR);
+            double d2 = (2.0 * mu * g2 + ltr) / Math.max(s.z, STRETCH_FLOOR);
+            // P = U diag(d) V^T: P_rc = sum_k U_rk d_k V_ck
+            out[o] = u.m00 * d0 * v.m00 + u.m01 * d1 * v.m01 + u.m02 * d2 * v.m02;
+            out[o + 1] = u.m00 * d0 * v.m10 + u.m01 * d1 * v.m11 + u.m02 * d2 * v.m12;
+            out[o + 2] = u.m00 * d0 * v.m20 + u.m01 * d1 * v.m21 + u.m02 * d2 * v.m22;
+            out[o + 3] = u.m10 * d0 * v.m00 + u.m11 * d1 * v.m01 + u.m12 * d2 * v.m02;
+            out[o + 4] = u.m10 * d0 * v.m10 + u.m11 * d1 * v.m11 + u.m12 * d2 * v.m12;
+            out[o + 5] = u.m10 * d0 * v.m20 + u.m11 * d1 * v.m21 + u.m12 * d2 * v.m22;
+            out[o + 6] = u.m20 * d0 * v.m00 + u.m21 * d1 * v.m01 + u.m22 * d2 * v.m02;
+            out[o + 7] = u.m20 * d0 * v.m10 + u.m21 * d1 * v.m11 + u.m22 * d2 * v.m12;
+            out[o + 8] = u.m20 * d0 * v.m20 + u.m21 * d1 * v.m21 + u.m22 * d2 * v.m22;
+        }
+    }
+
+    /**
+     * {@inheritDoc} Closed form tau = U diag(2 mu g_i + lambda sum_j g_j) U^T above the floor, where g = ln s;
+     * a stretch below the floor has its entry scaled by s_i / STRETCH_FLOOR, which is P F^T of the continued law.
+     */
+    @Override
+    public void kirchhoffStress(MaterialState state, int from, int to, double[] out) {
+        double[] f = state.deformation();
+        Mat3 a = new Mat3();
+        Mat3 u = new Mat3();
+        Mat3 v = new Mat3();
+        Vec3 s = new Vec3();
+        for (int p = from; p < to; p++) {
+            int o = 9 * (p - from);
+            a.load(f, 9 * p);
+            if (!Svd3.decompose(a, u, s, v)) {
+                Arrays.fill(out, o, o + 9, Double.NaN);
+                continue;
+            }
+            double g0 = logStretch(s.x), g1 = logStretch(s.y), g2 = logStretch(s.z);
+            double ltr = lambda * (g0 + g1 + g2);
+            double t0 = (2.0 * mu * g0 + ltr) * belowFloorScale(s.x);
+            double t1 = (2.0 * mu * g1 + ltr) * belowFloorScale(s.y);
+            double t2 = (2.0 * mu * g2 + ltr) * belowFloorScale(s.z);
+            FixedCorotated.symmetricUDUt(u, t0, t1, t2, 0.0, out, o);
+        }
+    }
+
+    /** ln s above the floor, its tangent line below. */
+    private static double logStretch(double s) {
+        return s >= STRETCH_FLOOR ? Math.log(s) : LOG_STRETCH_FLOOR + (s - STRETCH_FLOOR) / STRETCH_FLOOR;
+    }
+
+    /** s g'(s): exactly 1 above the floor, s / floor below it. */
+    private static double belowFloorScale(double s) {
+        return s >= STRETCH_FLOOR ? 1.0 : s / STRETCH_FLOOR;
+    }
+
+    /** @return the law's name and constants, for diagnostics */
+    @Override
+    public String toString() {
+        return NAME + parameters;
+    }
+}
