@@ -227,4 +227,43 @@ public final class ParticleStore implements MaterialState {
     public int[] freedScratch() {
         return lastFreed;
     }
+
+    /**
+     * Overwrites the particle arrays with saved values (for resuming). Names, widths and the particle count must
+     * match this store.
+     *
+     * @param values every channel by name
+     * @param bodyOf body index per particle
+     * @param ids    stable id per particle
+     * @throws InvalidInputException naming the first mismatch
+     */
+    public void restore(Map<String, double[]> values, int[] bodyOf, int[] ids) {
+        if (bodyOf.length != size || ids.length != size) {
+            throw new InvalidInputException(FrayMessage.INCONSISTENT, "saved particle count",
+                    "saved state has " + ids.length + " particles, the scene makes " + size);
+        }
+        if (!values.keySet().equals(data.keySet())) {
+            throw new InvalidInputException(FrayMessage.INCONSISTENT, "saved channels",
+                    "saved state has " + values.keySet() + ", the scene declares " + data.keySet());
+        }
+        for (int c = 0; c < names.size(); c++) {
+            double[] v = values.get(names.get(c));
+            if (v.length != arrays[c].length) {
+                throw new InvalidInputException(FrayMessage.INCONSISTENT, "saved channel \"" + names.get(c) + "\"",
+                        "has " + v.length + " values, expected " + arrays[c].length);
+            }
+            System.arraycopy(v, 0, arrays[c], 0, v.length);
+        }
+        boolean[] seen = new boolean[size];
+        for (int p = 0; p < size; p++) {
+            int i = ids[p];
+            if (i < 0 || i >= size || seen[i]) {
+                throw new InvalidInputException(FrayMessage.INCONSISTENT, "saved particle ids",
+                        "id " + i + " at index " + p + " is out of range or repeated");
+            }
+            seen[i] = true;
+        }
+        System.arraycopy(bodyOf, 0, body, 0, size);
+        System.arraycopy(ids, 0, id, 0, size);
+    }
 }

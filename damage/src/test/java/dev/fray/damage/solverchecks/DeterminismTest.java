@@ -11,6 +11,7 @@ import dev.fray.core.particles.ParticleStore;
 import dev.fray.core.sim.Body;
 import dev.fray.core.sim.Scene;
 import dev.fray.core.sim.Simulation;
+import dev.fray.core.sim.SimulationState;
 import dev.fray.core.testing.FrayTestBase;
 import dev.fray.damage.Elastic;
 import org.junit.jupiter.api.Test;
@@ -85,6 +86,26 @@ class DeterminismTest extends FrayTestBase {
             for (int c = 0; c < CHANNELS.length; c++) {
                 assertArrayEquals(aloneA[c], Probes.byId(a.particles(), CHANNELS[c]), 0.0, CHANNELS[c] + " of A");
                 assertArrayEquals(aloneB[c], Probes.byId(b.particles(), CHANNELS[c]), 0.0, CHANNELS[c] + " of B");
+            }
+        }
+    }
+
+    @Test
+    void resumingFromACapturedStateIsBitwiseIdenticalToARunThatNeverStopped() {
+        double[][] straight;
+        try (Simulation sim = new Simulation(scene(2, -1))) {
+            straight = run(sim, 120);
+        }
+        SimulationState half;
+        try (Simulation sim = new Simulation(scene(2, -1))) {
+            run(sim, 60);
+            half = sim.captureState();
+        }
+        try (Simulation resumed = new Simulation(scene(1, -1))) {
+            resumed.restoreState(half);
+            double[][] got = run(resumed, 60);
+            for (int c = 0; c < CHANNELS.length; c++) {
+                assertArrayEquals(straight[c], got[c], 0.0, CHANNELS[c] + " after resuming");
             }
         }
     }
