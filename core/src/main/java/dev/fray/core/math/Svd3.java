@@ -104,6 +104,62 @@ public final class Svd3 {
         return solve(a, null, null, null, r, null);
     }
 
+    /** Newton iterations stop refining once a step moves the iterate less than this (Frobenius norm). */
+    private static final double NEWTON_STEP = 1e-9;
+    /** Iteration cap of the Newton polar iteration before falling back to the SVD. */
+    private static final int NEWTON_MAX = 12;
+
+    /**
+     * Rotation factor of a by the scaled Newton iteration X &lt;- (g X + X^-T / g) / 2 (Higham, "Computing the polar
+     * decomposition - with applications", SIAM J. Sci. Stat. Comput. 7, 1986), which converges quadratically for
+     * det a &gt; 0. It is several times faster than the SVD for the mildly deformed F of a typical step; inverted,
+     * singular or slowly converging inputs return false and take the SVD path.
+     */
+    private static boolean newtonRotation(Mat3 a, Mat3 r) {
+        double x00 = a.m00, x01 = a.m01, x02 = a.m02;
+        double x10 = a.m10, x11 = a.m11, x12 = a.m12;
+        double x20 = a.m20, x21 = a.m21, x22 = a.m22;
+        boolean refined = false;
+        for (int it = 0; it < NEWTON_MAX; it++) {
+            // Cofactor matrix: X^-T = cof(X) / det X.
+            double k00 = x11 * x22 - x12 * x21, k01 = x12 * x20 - x10 * x22, k02 = x10 * x21 - x11 * x20;
+            double k10 = x02 * x21 - x01 * x22, k11 = x00 * x22 - x02 * x20, k12 = x01 * x20 - x00 * x21;
+            double k20 = x01 * x12 - x02 * x11, k21 = x02 * x10 - x00 * x12, k22 = x00 * x11 - x01 * x10;
+            double det = x00 * k00 + x01 * k01 + x02 * k02;
+            // Written so that NaN fails the test too.
+            if (!(det > 1e-10)) {
+                return false;
+            }
+            double inv = 1.0 / det;
+            double nx = x00 * x00 + x01 * x01 + x02 * x02 + x10 * x10 + x11 * x11 + x12 * x12
+                    + x20 * x20 + x21 * x21 + x22 * x22;
+            double nk = (k00 * k00 + k01 * k01 + k02 * k02 + k10 * k10 + k11 * k11 + k12 * k12
+                    + k20 * k20 + k21 * k21 + k22 * k22) * inv * inv;
+            // Frobenius scaling speeds up the first iterations; near convergence it is 1 and is dropped.
+            double g = refined ? 1.0 : Math.sqrt(Math.sqrt(nk / nx));
+            double ga = 0.5 * g, gb = 0.5 * inv / g;
+            double y00 = ga * x00 + gb * k00, y01 = ga * x01 + gb * k01, y02 = ga * x02 + gb * k02;
+            double y10 = ga * x10 + gb * k10, y11 = ga * x11 + gb * k11, y12 = ga * x12 + gb * k12;
+            double y20 = ga * x20 + gb * k20, y21 = ga * x21 + gb * k21, y22 = ga * x22 + gb * k22;
+            double d00 = y00 - x00, d01 = y01 - x01, d02 = y02 - x02, d10 = y10 - x10, d11 = y11 - x11;
+            double d12 = y12 - x12, d20 = y20 - x20, d21 = y21 - x21, d22 = y22 - x22;
+            double step2 = d00 * d00 + d01 * d01 + d02 * d02 + d10 * d10 + d11 * d11 + d12 * d12
+                    + d20 * d20 + d21 * d21 + d22 * d22;
+            x00 = y00; x01 = y01; x02 = y02;
+            x10 = y10; x11 = y11; x12 = y12;
+            x20 = y20; x21 = y21; x22 = y22;
+            if (refined) {
+                r.set(x00, x01, x02, x10, x11, x12, x20, x21, x22);
+                return true;
+            }
+            // Quadratic convergence: one more unscaled step after a small one reaches rounding level.
+            if (step2 < NEWTON_STEP * NEWTON_STEP) {
+                refined = true;
+            }
+        }
+        return false;
+    }
+
     /**
      * Shared body. SVD mode writes (u, sigma, v); polar mode (r != null) writes r and, if non-null, s.
      * One body keeps the two modes from drifting apart and needs no scratch objects.
@@ -135,6 +191,23 @@ public final class Svd3 {
                     r.set(a00, a01, a02, a10, a11, a12, a20, a21, a22);
                     return true;
                 }
+            }
+            if (newtonRotation(a, r)) {
+                if (s != null) {
+                    // S = sym(R^T a): R^T a is symmetric up to rounding once R is converged.
+                    double t00 = r.m00 * a00 + r.m10 * a10 + r.m20 * a20;
+                    double t01 = r.m00 * a01 + r.m10 * a11 + r.m20 * a21;
+                    double t02 = r.m00 * a02 + r.m10 * a12 + r.m20 * a22;
+                    double t10 = r.m01 * a00 + r.m11 * a10 + r.m21 * a20;
+                    double t11 = r.m01 * a01 + r.m11 * a11 + r.m21 * a21;
+                    double t12 = r.m01 * a02 + r.m11 * a12 + r.m21 * a22;
+                    double t20 = r.m02 * a00 + r.m12 * a10 + r.m22 * a20;
+                    double t21 = r.m02 * a01 + r.m12 * a11 + r.m22 * a21;
+                    double t22 = r.m02 * a02 + r.m12 * a12 + r.m22 * a22;
+                    double h01 = 0.5 * (t01 + t10), h02 = 0.5 * (t02 + t20), h12 = 0.5 * (t12 + t21);
+                    s.set(t00, h01, h02, h01, t11, h12, h02, h12, t22);
+                }
+                return true;
             }
         }
 
