@@ -177,8 +177,11 @@ public final class ParticleStore implements MaterialState {
      * @param scratch per-width scratch arrays, indexed by width (grown as needed, swapped with channel arrays)
      * @param ints    scratch of size() ints, taken over by the store; get a free one back from
      *                {@link #freedScratch()}
+     * @param workers threads for the copy; each channel is copied in fixed chunks
      */
-    public void permute(int[] order, double[][] scratch, int[] ints) {
+    public void permute(int[] order, double[][] scratch, int[] ints, dev.fray.core.parallel.Workers workers) {
+        final int chunk = 8192;
+        int tasks = (size + chunk - 1) / chunk;
         for (int c = 0; c < arrays.length; c++) {
             int w = widths[c];
             double[] src = arrays[c];
@@ -186,23 +189,28 @@ public final class ParticleStore implements MaterialState {
             if (dst == null || dst.length != src.length) {
                 dst = new double[src.length];
             }
-            if (w == 1) {
-                for (int i = 0; i < size; i++) {
-                    dst[i] = src[order[i]];
+            final double[] to = dst;
+            workers.forEach(tasks, (worker, t) -> {
+                int a = t * chunk;
+                int b = Math.min(size, a + chunk);
+                if (w == 1) {
+                    for (int i = a; i < b; i++) {
+                        to[i] = src[order[i]];
+                    }
+                } else if (w == 3) {
+                    for (int i = a; i < b; i++) {
+                        int s3 = 3 * order[i];
+                        int d = 3 * i;
+                        to[d] = src[s3];
+                        to[d + 1] = src[s3 + 1];
+                        to[d + 2] = src[s3 + 2];
+                    }
+                } else {
+                    for (int i = a; i < b; i++) {
+                        System.arraycopy(src, w * order[i], to, w * i, w);
+                    }
                 }
-            } else if (w == 3) {
-                for (int i = 0; i < size; i++) {
-                    int s = 3 * order[i];
-                    int d = 3 * i;
-                    dst[d] = src[s];
-                    dst[d + 1] = src[s + 1];
-                    dst[d + 2] = src[s + 2];
-                }
-            } else {
-                for (int i = 0; i < size; i++) {
-                    System.arraycopy(src, w * order[i], dst, w * i, w);
-                }
-            }
+            });
             arrays[c] = dst;
             data.put(names.get(c), dst);
             scratch[w] = src;

@@ -574,7 +574,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         for (int p = 0; p < n; p++) {
             order[blockCounts[blockRank[ids[p]]]++] = p;
         }
-        store.permute(order, permScratch, ints);
+        store.permute(order, permScratch, ints, workers);
         ints = store.freedScratch();
         // Grid blocks: each particle block and its 7 upper neighbours, which its stencils reach.
         grid.clear();
@@ -637,6 +637,9 @@ public final class Simulation implements SimulationView, AutoCloseable {
         sc.scatterNanos += System.nanoTime() - t0;
     }
 
+    /** Edge of the block-local node buffer: a block's 4 nodes plus the stencil's reach into the next block. */
+    static final int LOCAL = 8;
+
     private void scatterParticles(Scratch sc, int r, double h) {
         int start = blockStart[r];
         int end = blockStart[r + 1];
@@ -651,12 +654,12 @@ public final class Simulation implements SimulationView, AutoCloseable {
         double[] vol = store.volume();
         int[] body = store.body();
         double[] gripOf = scene.grips().isEmpty() ? null : store.channel(GRIP_CHANNEL);
-        double[] gm = grid.mass();
-        double[] gp = grid.momentum();
-        int[] gg = grid.grip();
+        // Scatter into a dense block-local buffer (mass and momentum per node), then add it to the sparse grid
+        // once: the inner loop needs no neighbour lookup and the grid sees one write per node per block.
+        double[] loc = sc.local;
+        int ext = 3 + s;
+        clearLocal(loc, ext);
         double[] wx = sc.wx, wy = sc.wy, wz = sc.wz;
-        int[] nx = sc.nx, ny = sc.ny, nz = sc.nz;
-        int nb = 8 * r;
         for (int runStart = start; runStart < end; ) {
             int b = body[runStart];
             int runEnd = runStart + 1;
@@ -675,13 +678,6 @@ public final class Simulation implements SimulationView, AutoCloseable {
                 kernel.weights(fx, wx, 0);
                 kernel.weights(fy, wy, 0);
                 kernel.weights(fz, wz, 0);
-                for (int i = 0; i < s; i++) {
-                    int gx = bx - baseX + i, gy = by - baseY + i, gz = bz - baseZ + i;
-                    // Bits 0-2: which of the 8 neighbour blocks; bits 3-8: node offset inside that block.
-                    nx[i] = ((gx >> 2) << 2) | ((gx & 3) << 7);
-                    ny[i] = ((gy >> 2) << 1) | ((gy & 3) << 5);
-                    nz[i] = (gz >> 2) | ((gz & 3) << 3);
-                }
                 double m = mass[p];
                 int o = 9 * (p - runStart);
                 double k = -h * vol[p] * dinv;
@@ -692,33 +688,106 @@ public final class Simulation implements SimulationView, AutoCloseable {
                 double a12 = m * cm[c9 + 5] + k * tau[o + 5];
                 double a20 = m * cm[c9 + 6] + k * tau[o + 6], a21 = m * cm[c9 + 7] + k * tau[o + 7];
                 double a22 = m * cm[c9 + 8] + k * tau[o + 8];
-                double mvx = m * v[3 * p], mvy = m * v[3 * p + 1], mvz = m * v[3 * p + 2];
-                int grip = gripOf == null ? -1 : (int) gripOf[p];
+                // Momentum at offset d from the particle is m v + A d; write d = (node - f) dx and expand.
+                double ex = -fx * dx, ey = -fy * dx, ez = -fz * dx;
+                double q0x = m * v[3 * p] + a00 * ex + a01 * ey + a02 * ez;
+                double q0y = m * v[3 * p + 1] + a10 * ex + a11 * ey + a12 * ez;
+                double q0z = m * v[3 * p + 2] + a20 * ex + a21 * ey + a22 * ez;
+                double sx0 = a00 * dx, sx1 = a10 * dx, sx2 = a20 * dx;
+                double sy0 = a01 * dx, sy1 = a11 * dx, sy2 = a21 * dx;
+                double sz0 = a02 * dx, sz1 = a12 * dx, sz2 = a22 * dx;
+                int base = 4 * (((bx - baseX) * LOCAL + (by - baseY)) * LOCAL + (bz - baseZ));
                 for (int i = 0; i < s; i++) {
-                    double dpx = (i - fx) * dx;
                     double wi = wx[i];
+                    double qix = q0x + i * sx0, qiy = q0y + i * sx1, qiz = q0z + i * sx2;
+                    int oi = base + i * (4 * LOCAL * LOCAL);
                     for (int j = 0; j < s; j++) {
-                        double dpy = (j - fy) * dx;
                         double wij = wi * wy[j];
-                        int nij = nx[i] + ny[j];
-                        for (int l = 0; l < s; l++) {
-                            double dpz = (l - fz) * dx;
-                            double wgt = wij * wz[l];
-                            int code = nij + nz[l];
-                            int node = (neighbours[nb + (code & 7)] << 6) + (code >>> 3);
-                            gm[node] += wgt * m;
-                            int n3 = 3 * node;
-                            gp[n3] += wgt * (mvx + a00 * dpx + a01 * dpy + a02 * dpz);
-                            gp[n3 + 1] += wgt * (mvy + a10 * dpx + a11 * dpy + a12 * dpz);
-                            gp[n3 + 2] += wgt * (mvz + a20 * dpx + a21 * dpy + a22 * dpz);
-                            if (grip >= 0 && grip < gg[node]) {
-                                gg[node] = grip;
+                        double qjx = qix + j * sy0, qjy = qiy + j * sy1, qjz = qiz + j * sy2;
+                        int oj = oi + j * (4 * LOCAL);
+                        if (s == 3) {
+                            // Quadratic stencil unrolled, as in the gather.
+                            double w0 = wij * wz[0], w1 = wij * wz[1], w2 = wij * wz[2];
+                            loc[oj] += w0 * m;
+                            loc[oj + 1] += w0 * qjx;
+                            loc[oj + 2] += w0 * qjy;
+                            loc[oj + 3] += w0 * qjz;
+                            loc[oj + 4] += w1 * m;
+                            loc[oj + 5] += w1 * (qjx + sz0);
+                            loc[oj + 6] += w1 * (qjy + sz1);
+                            loc[oj + 7] += w1 * (qjz + sz2);
+                            loc[oj + 8] += w2 * m;
+                            loc[oj + 9] += w2 * (qjx + 2 * sz0);
+                            loc[oj + 10] += w2 * (qjy + 2 * sz1);
+                            loc[oj + 11] += w2 * (qjz + 2 * sz2);
+                        } else {
+                            for (int l = 0; l < s; l++) {
+                                double w = wij * wz[l];
+                                int q = oj + 4 * l;
+                                loc[q] += w * m;
+                                loc[q + 1] += w * (qjx + l * sz0);
+                                loc[q + 2] += w * (qjy + l * sz1);
+                                loc[q + 3] += w * (qjz + l * sz2);
                             }
                         }
                     }
                 }
+                if (gripOf != null && gripOf[p] >= 0) {
+                    markGrip(r, (int) gripOf[p], bx - baseX, by - baseY, bz - baseZ, s);
+                }
             }
             runStart = runEnd;
+        }
+        flushLocal(loc, ext, r);
+    }
+
+    private static void clearLocal(double[] loc, int ext) {
+        for (int i = 0; i < ext; i++) {
+            for (int j = 0; j < ext; j++) {
+                int o = 4 * ((i * LOCAL + j) * LOCAL);
+                Arrays.fill(loc, o, o + 4 * ext, 0.0);
+            }
+        }
+    }
+
+    /** Adds the block-local buffer to the grid nodes it covers. */
+    private void flushLocal(double[] loc, int ext, int r) {
+        double[] gm = grid.mass();
+        double[] gp = grid.momentum();
+        int nb = 8 * r;
+        for (int i = 0; i < ext; i++) {
+            for (int j = 0; j < ext; j++) {
+                for (int l = 0; l < ext; l++) {
+                    int q = 4 * ((i * LOCAL + j) * LOCAL + l);
+                    double m = loc[q];
+                    if (m == 0) {
+                        continue;
+                    }
+                    int node = (neighbours[nb + (((i >> 2) << 2) | ((j >> 2) << 1) | (l >> 2))] << 6)
+                            + ((i & 3) << 4) + ((j & 3) << 2) + (l & 3);
+                    gm[node] += m;
+                    gp[3 * node] += loc[q + 1];
+                    gp[3 * node + 1] += loc[q + 2];
+                    gp[3 * node + 2] += loc[q + 3];
+                }
+            }
+        }
+    }
+
+    /** Tags the stencil nodes of a gripped particle with the smallest grip index touching them. */
+    private void markGrip(int r, int g, int lx, int ly, int lz, int s) {
+        int[] gg = grid.grip();
+        int nb = 8 * r;
+        for (int i = lx; i < lx + s; i++) {
+            for (int j = ly; j < ly + s; j++) {
+                for (int l = lz; l < lz + s; l++) {
+                    int node = (neighbours[nb + (((i >> 2) << 2) | ((j >> 2) << 1) | (l >> 2))] << 6)
+                            + ((i & 3) << 4) + ((j & 3) << 2) + (l & 3);
+                    if (g < gg[node]) {
+                        gg[node] = g;
+                    }
+                }
+            }
         }
     }
 
@@ -888,10 +957,9 @@ public final class Simulation implements SimulationView, AutoCloseable {
         double[] v = store.velocity();
         double[] cm = store.affine();
         double[] f = store.deformation();
-        double[] gv = grid.momentum();
         double[] wx = sc.wx, wy = sc.wy, wz = sc.wz;
-        int[] nx = sc.nx, ny = sc.ny, nz = sc.nz;
-        int nb = 8 * r;
+        double[] loc = sc.local;
+        loadLocal(loc, 3 + s, r);
         double fastest = 0;
         int fastestP = start;
         int bad = -1;
@@ -902,42 +970,68 @@ public final class Simulation implements SimulationView, AutoCloseable {
             kernel.weights(fx, wx, 0);
             kernel.weights(fy, wy, 0);
             kernel.weights(fz, wz, 0);
-            for (int i = 0; i < s; i++) {
-                int gx = bx - baseX + i, gy = by - baseY + i, gz = bz - baseZ + i;
-                nx[i] = ((gx >> 2) << 2) | ((gx & 3) << 7);
-                ny[i] = ((gy >> 2) << 1) | ((gy & 3) << 5);
-                nz[i] = (gz >> 2) | ((gz & 3) << 3);
-            }
+            int base = 4 * (((bx - baseX) * LOCAL + (by - baseY)) * LOCAL + (bz - baseZ));
+            // Accumulate sum w v and sum w v (node index)^T; the offsets from the particle follow afterwards.
             double vx = 0, vy = 0, vz = 0;
             double b00 = 0, b01 = 0, b02 = 0, b10 = 0, b11 = 0, b12 = 0, b20 = 0, b21 = 0, b22 = 0;
             for (int i = 0; i < s; i++) {
-                double dpx = (i - fx) * dx;
                 double wi = wx[i];
+                int oi = base + i * (4 * LOCAL * LOCAL);
                 for (int j = 0; j < s; j++) {
-                    double dpy = (j - fy) * dx;
                     double wij = wi * wy[j];
-                    int nij = nx[i] + ny[j];
-                    for (int l = 0; l < s; l++) {
-                        double dpz = (l - fz) * dx;
-                        double wgt = wij * wz[l];
-                        int code = nij + nz[l];
-                        int n3 = 3 * ((neighbours[nb + (code & 7)] << 6) + (code >>> 3));
-                        double ux = wgt * gv[n3], uy = wgt * gv[n3 + 1], uz = wgt * gv[n3 + 2];
-                        vx += ux;
-                        vy += uy;
-                        vz += uz;
-                        b00 += ux * dpx;
-                        b01 += ux * dpy;
-                        b02 += ux * dpz;
-                        b10 += uy * dpx;
-                        b11 += uy * dpy;
-                        b12 += uy * dpz;
-                        b20 += uz * dpx;
-                        b21 += uz * dpy;
-                        b22 += uz * dpz;
+                    int oj = oi + j * (4 * LOCAL);
+                    double sx = 0, sy = 0, sz = 0, tx = 0, ty = 0, tz = 0;
+                    if (s == 3) {
+                        // Quadratic stencil unrolled: a 3-trip loop costs more in loop overhead than in work.
+                        double w1 = wz[1], w2 = wz[2], w0 = wz[0];
+                        double u1x = w1 * loc[oj + 5], u1y = w1 * loc[oj + 6], u1z = w1 * loc[oj + 7];
+                        double u2x = w2 * loc[oj + 9], u2y = w2 * loc[oj + 10], u2z = w2 * loc[oj + 11];
+                        sx = w0 * loc[oj + 1] + u1x + u2x;
+                        sy = w0 * loc[oj + 2] + u1y + u2y;
+                        sz = w0 * loc[oj + 3] + u1z + u2z;
+                        tx = u1x + 2 * u2x;
+                        ty = u1y + 2 * u2y;
+                        tz = u1z + 2 * u2z;
+                    } else {
+                        for (int l = 0; l < s; l++) {
+                            double wgt = wz[l];
+                            int q = oj + 4 * l;
+                            double ux = wgt * loc[q + 1], uy = wgt * loc[q + 2], uz = wgt * loc[q + 3];
+                            sx += ux;
+                            sy += uy;
+                            sz += uz;
+                            tx += l * ux;
+                            ty += l * uy;
+                            tz += l * uz;
+                        }
                     }
+                    sx *= wij;
+                    sy *= wij;
+                    sz *= wij;
+                    vx += sx;
+                    vy += sy;
+                    vz += sz;
+                    b00 += i * sx;
+                    b01 += j * sx;
+                    b02 += wij * tx;
+                    b10 += i * sy;
+                    b11 += j * sy;
+                    b12 += wij * ty;
+                    b20 += i * sz;
+                    b21 += j * sz;
+                    b22 += wij * tz;
                 }
             }
+            // B = sum w v (d)^T with d = (node - f) dx.
+            b00 = (b00 - fx * vx) * dx;
+            b01 = (b01 - fy * vx) * dx;
+            b02 = (b02 - fz * vx) * dx;
+            b10 = (b10 - fx * vy) * dx;
+            b11 = (b11 - fy * vy) * dx;
+            b12 = (b12 - fz * vy) * dx;
+            b20 = (b20 - fx * vz) * dx;
+            b21 = (b21 - fy * vz) * dx;
+            b22 = (b22 - fz * vz) * dx;
             v[3 * p] = vx;
             v[3 * p + 1] = vy;
             v[3 * p + 2] = vz;
@@ -995,6 +1089,24 @@ public final class Simulation implements SimulationView, AutoCloseable {
         blockMaxSpeed[r] = Math.sqrt(fastest);
         blockFastest[r] = fastestP;
         blockBad[r] = bad;
+    }
+
+    /** Copies the grid velocities a block's stencils reach into the block-local buffer. */
+    private void loadLocal(double[] loc, int ext, int r) {
+        double[] gv = grid.momentum();
+        int nb = 8 * r;
+        for (int i = 0; i < ext; i++) {
+            for (int j = 0; j < ext; j++) {
+                for (int l = 0; l < ext; l++) {
+                    int q = 4 * ((i * LOCAL + j) * LOCAL + l);
+                    int node = (neighbours[nb + (((i >> 2) << 2) | ((j >> 2) << 1) | (l >> 2))] << 6)
+                            + ((i & 3) << 4) + ((j & 3) << 2) + (l & 3);
+                    loc[q + 1] = gv[3 * node];
+                    loc[q + 2] = gv[3 * node + 1];
+                    loc[q + 3] = gv[3 * node + 2];
+                }
+            }
+        }
     }
 
     private void checkDivergence(double h) {
@@ -1235,6 +1347,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         final int[] ny = new int[16];
         final int[] nz = new int[16];
         final double[] normal = new double[9];
+        final double[] local = new double[4 * LOCAL * LOCAL * LOCAL];
         final int[] node = new int[64];
         final double[] w = new double[64];
         final double[] gx = new double[64];
