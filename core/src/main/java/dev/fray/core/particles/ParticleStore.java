@@ -171,69 +171,70 @@ public final class ParticleStore implements MaterialState {
     }
 
     /**
-     * Reorders every channel so that new particle i is old particle order[i].
+     * Reorders every channel in place so that new particle i is old particle order[i], following the cycles of
+     * the permutation: no second copy of the particle arrays is needed. Channels are independent tasks, so the
+     * result does not depend on the thread count.
      *
-     * @param order   permutation, size() entries
-     * @param scratch per-width scratch arrays, indexed by width (grown as needed, swapped with channel arrays)
-     * @param ints    scratch of size() ints, taken over by the store; get a free one back from
-     *                {@link #freedScratch()}
-     * @param workers threads for the copy; each channel is copied in fixed chunks
+     * @param order   permutation, size() entries (input, not modified)
+     * @param workers threads; each channel (and the body and id arrays) is one task
      */
-    public void permute(int[] order, double[][] scratch, int[] ints, dev.fray.core.parallel.Workers workers) {
-        final int chunk = 8192;
-        int tasks = (size + chunk - 1) / chunk;
-        for (int c = 0; c < arrays.length; c++) {
-            int w = widths[c];
-            double[] src = arrays[c];
-            double[] dst = scratch[w];
-            if (dst == null || dst.length != src.length) {
-                dst = new double[src.length];
+    public void permute(int[] order, dev.fray.core.parallel.Workers workers) {
+        int words = (size + 63) >>> 6;
+        if (visited == null || visited.length != workers.threads() || visited[0].length < words) {
+            visited = new long[workers.threads()][words];
+        }
+        workers.forEach(arrays.length + 2, (worker, c) -> {
+            long[] seen = visited[worker];
+            java.util.Arrays.fill(seen, 0, words, 0L);
+            if (c < arrays.length) {
+                permuteInPlace(arrays[c], widths[c], order, seen);
+            } else {
+                permuteInPlace(c == arrays.length ? body : id, order, seen);
             }
-            final double[] to = dst;
-            workers.forEach(tasks, (worker, t) -> {
-                int a = t * chunk;
-                int b = Math.min(size, a + chunk);
-                if (w == 1) {
-                    for (int i = a; i < b; i++) {
-                        to[i] = src[order[i]];
-                    }
-                } else if (w == 3) {
-                    for (int i = a; i < b; i++) {
-                        int s3 = 3 * order[i];
-                        int d = 3 * i;
-                        to[d] = src[s3];
-                        to[d + 1] = src[s3 + 1];
-                        to[d + 2] = src[s3 + 2];
-                    }
-                } else {
-                    for (int i = a; i < b; i++) {
-                        System.arraycopy(src, w * order[i], to, w * i, w);
-                    }
-                }
-            });
-            arrays[c] = dst;
-            data.put(names.get(c), dst);
-            scratch[w] = src;
-        }
-        for (int i = 0; i < size; i++) {
-            ints[i] = body[order[i]];
-        }
-        int[] oldBody = body;
-        body = ints;
-        for (int i = 0; i < size; i++) {
-            oldBody[i] = id[order[i]];
-        }
-        int[] oldId = id;
-        id = oldBody;
-        // The freed array becomes the caller's next scratch.
-        lastFreed = oldId;
+        });
     }
 
-    private int[] lastFreed;
+    private long[][] visited;
 
-    /** @return the int array freed by the last {@link #permute}, to be passed as {@code ints} next time */
-    public int[] freedScratch() {
-        return lastFreed;
+    private void permuteInPlace(double[] a, int w, int[] order, long[] seen) {
+        double[] tmp = new double[w];
+        for (int start = 0; start < size; start++) {
+            if (order[start] == start || (seen[start >>> 6] & (1L << start)) != 0) {
+                continue;
+            }
+            System.arraycopy(a, w * start, tmp, 0, w);
+            int i = start;
+            while (true) {
+                seen[i >>> 6] |= 1L << i;
+                int j = order[i];
+                if (j == start) {
+                    System.arraycopy(tmp, 0, a, w * i, w);
+                    break;
+                }
+                System.arraycopy(a, w * j, a, w * i, w);
+                i = j;
+            }
+        }
+    }
+
+    private void permuteInPlace(int[] a, int[] order, long[] seen) {
+        for (int start = 0; start < size; start++) {
+            if (order[start] == start || (seen[start >>> 6] & (1L << start)) != 0) {
+                continue;
+            }
+            int tmp = a[start];
+            int i = start;
+            while (true) {
+                seen[i >>> 6] |= 1L << i;
+                int j = order[i];
+                if (j == start) {
+                    a[i] = tmp;
+                    break;
+                }
+                a[i] = a[j];
+                i = j;
+            }
+        }
     }
 
     /**

@@ -49,6 +49,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
     final MaterialLaw[] laws;
     final DamageModel[] damage;
     private final boolean phaseField;
+    private final boolean anyProjection;
     private final PhaseFieldSolve phaseFieldSolve;
     private final List<String> bodyNames;
     final Kernel kernel;
@@ -67,7 +68,6 @@ public final class Simulation implements SimulationView, AutoCloseable {
     private final long[] keys;
     private final int[] order;
     private int[] ints;
-    private final double[][] permScratch = new double[10][];
     int blockCount;
     long[] blockKeys = new long[64];
     int[] blockStart = new int[65];
@@ -120,6 +120,11 @@ public final class Simulation implements SimulationView, AutoCloseable {
             pf |= damage[b] != null && damage[b].usesPhaseField();
         }
         phaseField = pf;
+        boolean projects = false;
+        for (MaterialLaw law : laws) {
+            projects |= law.projectsDeformation();
+        }
+        anyProjection = projects;
         bodyNames = Collections.unmodifiableList(names);
         maxWaveSpeed = c;
         store = sample(scene);
@@ -574,8 +579,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         for (int p = 0; p < n; p++) {
             order[blockCounts[blockRank[ids[p]]]++] = p;
         }
-        store.permute(order, permScratch, ints, workers);
-        ints = store.freedScratch();
+        store.permute(order, workers);
         // Grid blocks: each particle block and its 7 upper neighbours, which its stencils reach.
         grid.clear();
         for (int r = 0; r < blockCount; r++) {
@@ -1075,7 +1079,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
             }
         }
         int[] body = store.body();
-        for (int runStart = start; runStart < end; ) {
+        for (int runStart = start; anyProjection && runStart < end; ) {
             int b = body[runStart];
             int runEnd = runStart + 1;
             while (runEnd < end && body[runEnd] == b) {
