@@ -62,9 +62,12 @@ public final class StandardBench {
      * @param particleStepsPerSecond particles times steps divided by seconds, 1/s
      * @param peakHeapBytes          largest heap use seen, bytes
      * @param bytesPerParticle       (peak heap - heap before setup) / particles, bytes
+     * @param phaseShares            share of the timed wall time per solver phase (sort, stress, scatter, grid,
+     *                               solve, gather), summing to about 1
      */
     public record Result(String scene, int particles, int steps, int threads, double seconds,
-                         double particleStepsPerSecond, long peakHeapBytes, double bytesPerParticle) {
+                         double particleStepsPerSecond, long peakHeapBytes, double bytesPerParticle,
+                         java.util.Map<String, Double> phaseShares) {
     }
 
     /** @return the benchmark scene names */
@@ -158,6 +161,7 @@ public final class StandardBench {
             memory.gc();
             long peak = memory.getHeapMemoryUsage().getUsed();
             int sampleEvery = Math.max(1, steps / 20);
+            java.util.Map<String, Double> phases0 = sim.phaseSeconds();
             long t0 = System.nanoTime();
             for (int i = 0; i < steps; i++) {
                 sim.step();
@@ -166,11 +170,13 @@ public final class StandardBench {
                 }
             }
             double seconds = (System.nanoTime() - t0) * 1e-9;
+            java.util.Map<String, Double> shares = new java.util.LinkedHashMap<>();
+            sim.phaseSeconds().forEach((phase, total) -> shares.put(phase, (total - phases0.get(phase)) / seconds));
             memory.gc();
             peak = Math.max(peak, memory.getHeapMemoryUsage().getUsed());
             int np = sim.particles().size();
             return new Result(name, np, steps, threads, seconds, (double) np * steps / seconds, peak,
-                    (double) (peak - before) / np);
+                    (double) (peak - before) / np, shares);
         }
     }
 }

@@ -47,6 +47,11 @@ public final class BenchCommand implements Callable<Integer> {
             description = "Untimed steps before timing starts, 0 to 100000000 (default: ${DEFAULT-VALUE}).")
     private int warmup;
 
+    @Option(names = "--breakdown",
+            description = "Also report the share of time per solver phase (sort, stress, scatter, grid, solve, "
+                    + "gather) under the key phaseShares.")
+    private boolean breakdown;
+
     @Option(names = "--threads", paramLabel = "T",
             description = "Worker threads, 1 to 1024 (default: all cores).")
     private Integer threads;
@@ -78,6 +83,10 @@ public final class BenchCommand implements Callable<Integer> {
         o.put("particleStepsPerSecond", r.particleStepsPerSecond());
         o.put("peakHeapBytes", r.peakHeapBytes());
         o.put("bytesPerParticle", r.bytesPerParticle());
+        if (breakdown) {
+            ObjectNode phases = o.putObject("phaseShares");
+            r.phaseShares().forEach(phases::put);
+        }
         PrintWriter out = spec.commandLine().getOut();
         out.println(JSON.writeValueAsString(o));
         out.flush();
