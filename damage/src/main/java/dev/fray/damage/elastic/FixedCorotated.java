@@ -147,6 +147,82 @@ public final class FixedCorotated implements MaterialLaw {
         }
     }
 
+    /**
+     * {@inheritDoc}
+     *
+     * <p>Volumetric-deviatoric split after Amor, Marigo and Maurini 2009 (J. Mech. Phys. Solids 57). The shear
+     * term is linear elasticity on the corotated (Biot) strain S - I, whose principal values are sigma_i - 1, so
+     * Amor's split applies to it directly: with the mean stretch m = (sigma_1 + sigma_2 + sigma_3) / 3,
+     * <pre>
+     *   mu ||F - R||^2 = mu sum (sigma_i - m)^2   +   3 mu (m - 1)^2   (exact: the mean and the spread of sigma)
+     *                    deviatoric                   volumetric (tr(S - I) = 3 (m - 1))
+     * </pre>
+     * and the volume term lambda/2 (J - 1)<sup>2</sup> is volumetric. The deviatoric part is always degradable;
+     * the volumetric shear part is degradable when m &gt; 1 (the trace of the corotated strain is positive) and
+     * the volume term when J &gt; 1. Each part is &gt;= 0 (for lambda &gt;= 0), each vanishes with zero slope at
+     * its switch, so the degradable energy and stress are continuous, and J &gt; 1 implies m &gt; 1 (mean of the
+     * stretches &gt;= their geometric mean), so a particle in expansion degrades everything. In principal
+     * directions (tau = U diag(sigma_i dpsi/dsigma_i) U^T):
+     * <pre>
+     *   deviatoric       U diag(2 mu (sigma_i - m) sigma_i) U^T
+     *   volumetric shear U diag(2 mu (m - 1) sigma_i) U^T
+     *   volume           lambda (J - 1) J I
+     * </pre>
+     * A pure dilatation (m = J<sup>1/3</sup>) has no deviatoric part; an isochoric shear (J = 1, m &gt; 1) is all
+     * degradable. At small strain this is Amor's split, K/2 &lt;tr eps&gt;<sup>2</sup> and mu |dev eps|<sup>2</sup>
+     * with K = lambda + 2 mu / 3. The switch on m rather than J for the shear term is a choice: a split of the
+     * shear term by J alone, 3 mu (J<sup>1/3</sup> - 1)<sup>2</sup>, leaves a deviatoric remainder that turns
+     * negative under strongly non-uniform compression (J below about 0.13), which would make the crack driving
+     * force negative.
+     */
+    @Override
+    public void splitKirchhoffStress(MaterialState state, int from, int to, double[] tauDegraded, double[] tauKept,
+                                     double[] psiDegraded, double[] psiKept) {
+        double[] f = state.deformation();
+        Mat3 a = new Mat3();
+        Mat3 u = new Mat3();
+        Mat3 v = new Mat3();
+        Vec3 s = new Vec3();
+        for (int p = from; p < to; p++) {
+            int o = 9 * (p - from);
+            a.load(f, 9 * p);
+            if (!Svd3.decompose(a, u, s, v)) {
+                Arrays.fill(tauDegraded, o, o + 9, Double.NaN);
+                Arrays.fill(tauKept, o, o + 9, Double.NaN);
+                psiDegraded[p - from] = Double.NaN;
+                psiKept[p - from] = Double.NaN;
+                continue;
+            }
+            double j = det(a);
+            double m = (s.x + s.y + s.z) / 3.0;
+            double e0 = s.x - m, e1 = s.y - m, e2 = s.z - m;
+            double m2 = 2.0 * mu;
+            double psiDev = mu * (e0 * e0 + e1 * e1 + e2 * e2);
+            double mm1 = m - 1.0;
+            double psiMean = 3.0 * mu * mm1 * mm1;
+            double jm1 = j - 1.0;
+            double psiVol = 0.5 * lambda * jm1 * jm1;
+            boolean meanDegraded = m > 1.0;
+            boolean volDegraded = j > 1.0;
+            // principal Kirchhoff stresses of each part; the degradable and kept sets are disjoint
+            double dev0 = m2 * e0 * s.x, dev1 = m2 * e1 * s.y, dev2 = m2 * e2 * s.z;
+            double mean0 = m2 * mm1 * s.x, mean1 = m2 * mm1 * s.y, mean2 = m2 * mm1 * s.z;
+            double iso = lambda * jm1 * j;
+            symmetricUDUt(u,
+                    meanDegraded ? dev0 + mean0 : dev0,
+                    meanDegraded ? dev1 + mean1 : dev1,
+                    meanDegraded ? dev2 + mean2 : dev2,
+                    volDegraded ? iso : 0.0, tauDegraded, o);
+            symmetricUDUt(u,
+                    meanDegraded ? 0.0 : mean0,
+                    meanDegraded ? 0.0 : mean1,
+                    meanDegraded ? 0.0 : mean2,
+                    volDegraded ? 0.0 : iso, tauKept, o);
+            psiDegraded[p - from] = psiDev + (meanDegraded ? psiMean : 0.0) + (volDegraded ? psiVol : 0.0);
+            psiKept[p - from] = (meanDegraded ? 0.0 : psiMean) + (volDegraded ? 0.0 : psiVol);
+        }
+    }
+
     /** Determinant from the entries; near rest this is more accurate than the product of singular values. */
     private static double det(Mat3 a) {
         return a.m00 * (a.m11 * a.m22 - a.m12 * a.m21) + a.m01 * (a.m12 * a.m20 - a.m10 * a.m22)

@@ -159,6 +159,57 @@ public final class HenckyStVK implements MaterialLaw {
         }
     }
 
+    /**
+     * {@inheritDoc}
+     *
+     * <p>Spectral split after Miehe, Welschinger and Hofacker 2010 (Int. J. Numer. Meth. Engng 83), on the
+     * principal logarithmic strains g_i = ln s_i (continued below {@link #STRETCH_FLOOR} as in the energy):
+     * <pre>
+     *   psi+ = lambda/2 &lt;tr g&gt;+^2 + mu sum &lt;g_i&gt;+^2
+     *   psi- = lambda/2 &lt;tr g&gt;-^2 + mu sum &lt;g_i&gt;-^2
+     *   tau+ = U diag((2 mu &lt;g_i&gt;+ + lambda &lt;tr g&gt;+) s_i g'(s_i)) U^T
+     *   tau- = U diag((2 mu &lt;g_i&gt;- + lambda &lt;tr g&gt;-) s_i g'(s_i)) U^T
+     * </pre>
+     * with &lt;x&gt;+ = max(x, 0), &lt;x&gt;- = min(x, 0); the + part is degradable, the - part kept. Since
+     * &lt;x&gt;+ + &lt;x&gt;- = x exactly, the parts add up to the law's energy and stress. psi+ &gt;= 0 for every
+     * admissible Poisson ratio: (tr g)<sup>2</sup> &lt;= 3 sum &lt;g_i&gt;+<sup>2</sup> when tr g &gt; 0, and
+     * lambda &gt; -2 mu / 3. Unlike a volumetric-deviatoric split, an isochoric shear with principal strains
+     * (g, -g, 0) keeps its compressive half, psi- = psi+ = psi / 2.
+     */
+    @Override
+    public void splitKirchhoffStress(MaterialState state, int from, int to, double[] tauDegraded, double[] tauKept,
+                                     double[] psiDegraded, double[] psiKept) {
+        double[] f = state.deformation();
+        Mat3 a = new Mat3();
+        Mat3 u = new Mat3();
+        Mat3 v = new Mat3();
+        Vec3 s = new Vec3();
+        for (int p = from; p < to; p++) {
+            int o = 9 * (p - from);
+            a.load(f, 9 * p);
+            if (!Svd3.decompose(a, u, s, v)) {
+                Arrays.fill(tauDegraded, o, o + 9, Double.NaN);
+                Arrays.fill(tauKept, o, o + 9, Double.NaN);
+                psiDegraded[p - from] = Double.NaN;
+                psiKept[p - from] = Double.NaN;
+                continue;
+            }
+            double g0 = logStretch(s.x), g1 = logStretch(s.y), g2 = logStretch(s.z);
+            double tr = g0 + g1 + g2;
+            double trP = Math.max(tr, 0.0), trN = Math.min(tr, 0.0);
+            double p0 = Math.max(g0, 0.0), p1 = Math.max(g1, 0.0), p2 = Math.max(g2, 0.0);
+            double n0 = Math.min(g0, 0.0), n1 = Math.min(g1, 0.0), n2 = Math.min(g2, 0.0);
+            double sc0 = belowFloorScale(s.x), sc1 = belowFloorScale(s.y), sc2 = belowFloorScale(s.z);
+            double lp = lambda * trP, ln = lambda * trN;
+            FixedCorotated.symmetricUDUt(u, (2.0 * mu * p0 + lp) * sc0, (2.0 * mu * p1 + lp) * sc1,
+                    (2.0 * mu * p2 + lp) * sc2, 0.0, tauDegraded, o);
+            FixedCorotated.symmetricUDUt(u, (2.0 * mu * n0 + ln) * sc0, (2.0 * mu * n1 + ln) * sc1,
+                    (2.0 * mu * n2 + ln) * sc2, 0.0, tauKept, o);
+            psiDegraded[p - from] = mu * (p0 * p0 + p1 * p1 + p2 * p2) + 0.5 * lambda * trP * trP;
+            psiKept[p - from] = mu * (n0 * n0 + n1 * n1 + n2 * n2) + 0.5 * lambda * trN * trN;
+        }
+    }
+
     /** ln s above the floor, its tangent line below. */
     private static double logStretch(double s) {
         return s >= STRETCH_FLOOR ? Math.log(s) : LOG_STRETCH_FLOOR + (s - STRETCH_FLOOR) / STRETCH_FLOOR;

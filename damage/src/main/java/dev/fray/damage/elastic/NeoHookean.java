@@ -4,6 +4,8 @@ import dev.fray.core.error.Checks;
 import dev.fray.core.material.MaterialLaw;
 import dev.fray.core.material.MaterialState;
 
+import java.util.Arrays;
+
 /**
  * Compressible Neo-Hookean elasticity (Bonet and Wood, <i>Nonlinear Continuum Mechanics for Finite Element
  * Analysis</i>):
@@ -149,6 +151,91 @@ public final class NeoHookean implements MaterialLaw {
             out[o + 6] = mu * b02;
             out[o + 7] = mu * b12;
             out[o + 8] = mu * (b22 - 1.0) + iso;
+        }
+    }
+
+    /**
+     * {@inheritDoc}
+     *
+     * <p>Volumetric-deviatoric split after Amor, Marigo and Maurini 2009 (J. Mech. Phys. Solids 57): the
+     * volumetric energy is the energy of the pure dilatation J<sup>1/3</sup> I with the same volume ratio,
+     * <pre>
+     *   psi_vol(J) = 3 mu/2 (J^(2/3) - 1) - mu ln J + lambda/2 (ln J)^2
+     *   tau_vol    = J dpsi_vol/dJ I = (mu (J^(2/3) - 1) + lambda ln J) I
+     *   psi_dev    = psi - psi_vol = mu/2 (tr C - 3 J^(2/3))
+     *   tau_dev    = tau - tau_vol = mu (F F^T - J^(2/3) I)
+     * </pre>
+     * (ln J continued below {@link #J_FLOOR} as in the energy). psi_dev &gt;= 0 for every F, since
+     * tr C / 3 &gt;= (det C)<sup>1/3</sup> for the eigenvalues of C, with equality exactly for pure dilatation,
+     * and psi_vol &gt;= 0 for J &gt;= 1. The deviatoric part is always degradable, the volumetric part only in
+     * expansion (J &gt; 1). Both parts vanish with zero slope at J = 1, so the degradable energy and stress are
+     * continuous across the switch. At finite strain tau_dev is the stress of psi_dev, not the deviator of tau: its
+     * trace mu (tr b - 3 J<sup>2/3</sup>) is &gt;= 0. At small strain the split reduces to Amor's, K/2 &lt;tr eps&gt;<sup>2</sup>
+     * and mu |dev eps|<sup>2</sup> with K = lambda + 2 mu / 3.
+     */
+    @Override
+    public void splitKirchhoffStress(MaterialState state, int from, int to, double[] tauDegraded, double[] tauKept,
+                                     double[] psiDegraded, double[] psiKept) {
+        double[] f = state.deformation();
+        for (int p = from; p < to; p++) {
+            int i = 9 * p;
+            int o = 9 * (p - from);
+            double f00 = f[i], f01 = f[i + 1], f02 = f[i + 2];
+            double f10 = f[i + 3], f11 = f[i + 4], f12 = f[i + 5];
+            double f20 = f[i + 6], f21 = f[i + 7], f22 = f[i + 8];
+            double j = f00 * (f11 * f22 - f12 * f21) + f01 * (f12 * f20 - f10 * f22) + f02 * (f10 * f21 - f11 * f20);
+            double l = logJ(j);
+            // same expression as kirchhoffStress, so an expanded particle gets the same bits
+            double iso = j >= J_FLOOR ? lambda * Math.log(j) : (lambda * logJ(j) - mu) * (j / J_FLOOR) + mu;
+            double b00 = f00 * f00 + f01 * f01 + f02 * f02;
+            double b11 = f10 * f10 + f11 * f11 + f12 * f12;
+            double b22 = f20 * f20 + f21 * f21 + f22 * f22;
+            double b01 = f00 * f10 + f01 * f11 + f02 * f12;
+            double b02 = f00 * f20 + f01 * f21 + f02 * f22;
+            double b12 = f10 * f20 + f11 * f21 + f12 * f22;
+            double trC = b00 + b11 + b22;
+            // J^(2/3) as cbrt(J)^2 stays real and non-negative for J <= 0
+            double c = Math.cbrt(j);
+            double j23 = c * c;
+            if (j > 1.0) {
+                tauDegraded[o] = mu * (b00 - 1.0) + iso;
+                tauDegraded[o + 1] = mu * b01;
+                tauDegraded[o + 2] = mu * b02;
+                tauDegraded[o + 3] = mu * b01;
+                tauDegraded[o + 4] = mu * (b11 - 1.0) + iso;
+                tauDegraded[o + 5] = mu * b12;
+                tauDegraded[o + 6] = mu * b02;
+                tauDegraded[o + 7] = mu * b12;
+                tauDegraded[o + 8] = mu * (b22 - 1.0) + iso;
+                Arrays.fill(tauKept, o, o + 9, 0.0);
+                psiDegraded[p - from] = 0.5 * mu * (trC - 3.0) - mu * l + 0.5 * lambda * l * l;
+                psiKept[p - from] = 0.0;
+            } else {
+                double md = mu * j23;
+                tauDegraded[o] = mu * b00 - md;
+                tauDegraded[o + 1] = mu * b01;
+                tauDegraded[o + 2] = mu * b02;
+                tauDegraded[o + 3] = mu * b01;
+                tauDegraded[o + 4] = mu * b11 - md;
+                tauDegraded[o + 5] = mu * b12;
+                tauDegraded[o + 6] = mu * b02;
+                tauDegraded[o + 7] = mu * b12;
+                tauDegraded[o + 8] = mu * b22 - md;
+                // tau_vol = tau - tau_dev = (iso + mu (J^(2/3) - 1)) I, also below the floor
+                double pVol = iso + mu * (j23 - 1.0);
+                tauKept[o] = pVol;
+                tauKept[o + 1] = 0.0;
+                tauKept[o + 2] = 0.0;
+                tauKept[o + 3] = 0.0;
+                tauKept[o + 4] = pVol;
+                tauKept[o + 5] = 0.0;
+                tauKept[o + 6] = 0.0;
+                tauKept[o + 7] = 0.0;
+                tauKept[o + 8] = pVol;
+                // the clamp only removes rounding below zero near pure dilatation
+                psiDegraded[p - from] = Math.max(0.0, 0.5 * mu * (trC - 3.0 * j23));
+                psiKept[p - from] = 1.5 * mu * (j23 - 1.0) - mu * l + 0.5 * lambda * l * l;
+            }
         }
     }
 

@@ -35,7 +35,7 @@ public final class FiberChannels {
 
     /**
      * @param family family number, 1 to 3
-     * @return declaration of the reference-direction channel (initially along x)
+     * @return declaration of the reference-direction channel (initially zero: no fiber)
      */
     public static ChannelSpec referenceSpec(int family) {
         return new ChannelSpec(reference(family), 3, 0, "1",
