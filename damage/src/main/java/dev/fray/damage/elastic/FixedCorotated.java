@@ -123,27 +123,47 @@ public final class FixedCorotated implements MaterialLaw {
     }
 
     /**
-     * {@inheritDoc} Closed form from F = U diag(sigma) V^T: (F - R) F^T = U diag((sigma_i - 1) sigma_i) U^T, so
-     * tau = U diag(2 mu (sigma_i - 1) sigma_i) U^T + lambda (J - 1) J I, symmetric by construction.
+     * {@inheritDoc} Closed form tau = 2 mu (F F^T - R F^T) + lambda (J - 1) J I, with R from the polar
+     * decomposition (Newton iteration, SVD fallback; see {@link Svd3#rotation}). R F^T = R S R^T is symmetric;
+     * it is symmetrised to remove rounding.
      */
     @Override
     public void kirchhoffStress(MaterialState state, int from, int to, double[] out) {
         double[] f = state.deformation();
         Mat3 a = new Mat3();
-        Mat3 u = new Mat3();
-        Mat3 v = new Mat3();
-        Vec3 s = new Vec3();
+        Mat3 r = new Mat3();
+        double m2 = 2.0 * mu;
         for (int p = from; p < to; p++) {
             int o = 9 * (p - from);
             a.load(f, 9 * p);
-            if (!Svd3.decompose(a, u, s, v)) {
+            if (!Svd3.rotation(a, r)) {
                 Arrays.fill(out, o, o + 9, Double.NaN);
                 continue;
             }
+            double f00 = a.m00, f01 = a.m01, f02 = a.m02;
+            double f10 = a.m10, f11 = a.m11, f12 = a.m12;
+            double f20 = a.m20, f21 = a.m21, f22 = a.m22;
+            // F F^T - sym(R F^T), row by row.
+            double s00 = f00 * f00 + f01 * f01 + f02 * f02 - (r.m00 * f00 + r.m01 * f01 + r.m02 * f02);
+            double s11 = f10 * f10 + f11 * f11 + f12 * f12 - (r.m10 * f10 + r.m11 * f11 + r.m12 * f12);
+            double s22 = f20 * f20 + f21 * f21 + f22 * f22 - (r.m20 * f20 + r.m21 * f21 + r.m22 * f22);
+            double s01 = f00 * f10 + f01 * f11 + f02 * f12
+                    - 0.5 * (r.m00 * f10 + r.m01 * f11 + r.m02 * f12 + r.m10 * f00 + r.m11 * f01 + r.m12 * f02);
+            double s02 = f00 * f20 + f01 * f21 + f02 * f22
+                    - 0.5 * (r.m00 * f20 + r.m01 * f21 + r.m02 * f22 + r.m20 * f00 + r.m21 * f01 + r.m22 * f02);
+            double s12 = f10 * f20 + f11 * f21 + f12 * f22
+                    - 0.5 * (r.m10 * f20 + r.m11 * f21 + r.m12 * f22 + r.m20 * f10 + r.m21 * f11 + r.m22 * f12);
             double j = det(a);
             double iso = lambda * (j - 1.0) * j;
-            double m2 = 2.0 * mu;
-            symmetricUDUt(u, m2 * (s.x - 1.0) * s.x, m2 * (s.y - 1.0) * s.y, m2 * (s.z - 1.0) * s.z, iso, out, o);
+            out[o] = m2 * s00 + iso;
+            out[o + 1] = m2 * s01;
+            out[o + 2] = m2 * s02;
+            out[o + 3] = m2 * s01;
+            out[o + 4] = m2 * s11 + iso;
+            out[o + 5] = m2 * s12;
+            out[o + 6] = m2 * s02;
+            out[o + 7] = m2 * s12;
+            out[o + 8] = m2 * s22 + iso;
         }
     }
 
