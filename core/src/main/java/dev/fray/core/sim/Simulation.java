@@ -1351,6 +1351,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         final int[] ny = new int[16];
         final int[] nz = new int[16];
         final double[] normal = new double[9];
+        final double[] pair = new double[2];
         final double[] local = new double[4 * LOCAL * LOCAL * LOCAL];
         final int[] node = new int[64];
         final double[] w = new double[64];

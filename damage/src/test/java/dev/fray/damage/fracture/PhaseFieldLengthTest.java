@@ -34,13 +34,6 @@ class PhaseFieldLengthTest extends FrayTestBase {
     private static final double DX = 0.01;
     /** VALIDATION B15 tolerance for l &gt;= 2 dx. */
     private static final double LENGTH_TOLERANCE = 0.03;
-    /**
-     * Tolerance at exactly l = 2 dx. The core solve lumps the reaction term; for a mode d_i = r^i on quadratic
-     * B-splines with 2 particles per cell the discrete equation (lumped M + l^2 K) d = 0 decays over 1.032 l at
-     * l = 2 dx, 1.015 l at 3 dx (derived for this test, common practice, no source; a consistent reaction term
-     * would give 1.003 l). The 3% target of VALIDATION B15 holds from l = 2.1 dx on; at 2 dx allow the 3.2%.
-     */
-    private static final double LENGTH_TOLERANCE_TWO_CELLS = 0.035;
     private static final double GC = 1.0;
     /** Penalty of the pinned particles relative to Gc/l: large enough to hold d near 1, small enough for CG. */
     private static final double PENALTY = 1e4;
@@ -183,7 +176,7 @@ class PhaseFieldLengthTest extends FrayTestBase {
         for (double cells : new double[] {2, 2.5, 3}) {
             double l = cells * DX;
             double got = fittedLength(at2(l), null, l);
-            double tol = cells == 2 ? LENGTH_TOLERANCE_TWO_CELLS : LENGTH_TOLERANCE;
+            double tol = LENGTH_TOLERANCE;
             // published: Miehe, Hofacker and Welschinger, CMAME 199 (2010): d = exp(-|s|/l)
             assertEquals(l, got, tol * l, "isotropic l_eff at l = " + cells + " dx");
         }
@@ -198,7 +191,7 @@ class PhaseFieldLengthTest extends FrayTestBase {
         assertEquals(l * Math.sqrt(1 + alpha), along, LENGTH_TOLERANCE * l * Math.sqrt(1 + alpha),
                 "l_eff along the fibers");
         double across = fittedLength(anisotropic(l, alpha), new double[] {0, 1, 0}, l);
-        assertEquals(l, across, LENGTH_TOLERANCE_TWO_CELLS * l, "l_eff across the fibers (l = 2 dx)");
+        assertEquals(l, across, LENGTH_TOLERANCE * l, "l_eff across the fibers (l = 2 dx)");
         double wider = fittedLength(anisotropic(1.5 * l, alpha), new double[] {0, 0, 1}, 1.5 * l);
         assertEquals(1.5 * l, wider, LENGTH_TOLERANCE * 1.5 * l, "l_eff across the fibers (l = 3 dx)");
     }
