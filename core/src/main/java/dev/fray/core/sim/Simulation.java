@@ -1191,6 +1191,20 @@ public final class Simulation implements SimulationView, AutoCloseable {
         return particleView;
     }
 
+    /**
+     * @return conjugate-gradient iterations of the last phase-field solve (0 without phase-field damage)
+     */
+    public int phaseFieldIterations() {
+        return phaseFieldSolve == null ? 0 : phaseFieldSolve.lastIterations();
+    }
+
+    /**
+     * @return relative residual reached by the last phase-field solve (0 without phase-field damage)
+     */
+    public double phaseFieldResidual() {
+        return phaseFieldSolve == null ? 0 : phaseFieldSolve.lastResidual();
+    }
+
     /** @return the largest elastic wave speed over the bodies, m/s, used by the time-step bound */
     public double maxWaveSpeed() {
         return maxWaveSpeed;
