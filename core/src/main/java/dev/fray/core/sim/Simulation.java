@@ -360,7 +360,10 @@ public final class Simulation implements SimulationView, AutoCloseable {
      */
     public RunSummary run(double duration) {
         dev.fray.core.error.Checks.positive("duration (s)", duration);
-        double endTime = time + duration;
+        return runUntil(time + duration);
+    }
+
+    private RunSummary runUntil(double endTime) {
         long startStep = step;
         double startTime = time;
         long wall0 = System.nanoTime();
@@ -419,7 +422,8 @@ public final class Simulation implements SimulationView, AutoCloseable {
      */
     public RunSummary runFrames(int frames) {
         dev.fray.core.error.Checks.inRange("frames", frames, 1, Integer.MAX_VALUE);
-        return run(frameTime(frame + frames) - time);
+        // The end is the frame time itself, not time + (frame time - time), which can miss it by an ulp.
+        return runUntil(frameTime(frame + frames));
     }
 
     private boolean reached(double endTime) {

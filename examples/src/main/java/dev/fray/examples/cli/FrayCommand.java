@@ -3,6 +3,7 @@ package dev.fray.examples.cli;
 import dev.fray.core.error.FrayError;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.error.SimulationDivergedException;
+import dev.fray.io.scene.SceneFileException;
 
 import java.io.PrintWriter;
 import java.util.concurrent.Callable;
@@ -15,16 +16,20 @@ import picocli.CommandLine.ParseResult;
 import picocli.CommandLine.Spec;
 
 /**
- * The {@code fray} command-line runner: {@code fray demo ...} runs a built-in demo scene, {@code fray bench ...}
- * runs a standard benchmark.
+ * The {@code fray} command-line runner: {@code fray run SCENE --out DIR} runs a scene file, {@code fray check
+ * SCENE} validates one and says what a run would cost, {@code fray resume CHECKPOINT} continues a run,
+ * {@code fray info FILE} says what an output file holds, {@code fray demo ...} runs a built-in demo scene and
+ * {@code fray bench ...} a standard benchmark.
  *
  * <p>Exit codes: {@link #OK} success, {@link #BAD_INPUT} bad input (an {@link InvalidInputException} or a usage
  * error), {@link #DIVERGED} the simulation diverged ({@link SimulationDivergedException}), {@link #INTERNAL} any
- * other failure. Errors print one line to standard error; {@code --debug} adds the stack trace.
+ * other failure. Errors print one line to standard error (a scene file with several problems: one line each);
+ * {@code --debug} adds the stack trace.
  */
 @Command(name = "fray", mixinStandardHelpOptions = true, versionProvider = FrayCommand.Version.class,
         description = "Simulates solids that crack, tear and peel with the material point method.",
-        subcommands = {DemoCommand.class, BenchCommand.class, CommandLine.HelpCommand.class})
+        subcommands = {RunCommand.class, CheckCommand.class, ResumeCommand.class, InfoCommand.class,
+            DemoCommand.class, BenchCommand.class, CommandLine.HelpCommand.class})
 public final class FrayCommand implements Callable<Integer> {
     /** Exit code: success. */
     public static final int OK = 0;
@@ -132,6 +137,10 @@ public final class FrayCommand implements Callable<Integer> {
 
     private static String describe(Throwable t) {
         FrayError e = frayError(t);
+        if (e instanceof SceneFileException sfe) {
+            // One line per problem, so that a user sees them all and can fix them in one go.
+            return sfe.getMessage().replace("\r", " ");
+        }
         if (e != null) {
             return oneLine(((Throwable) e).getMessage());
         }

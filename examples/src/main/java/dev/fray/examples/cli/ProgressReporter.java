@@ -40,6 +40,19 @@ final class ProgressReporter implements FrameListener {
         return new ProgressReporter(System.console() != null ? err : null, label, frames);
     }
 
+    /**
+     * Starts the clock now, for a run that starts at a frame other than 0 (a resumed run, whose first event is
+     * the frame after the checkpoint). Without it, the clock starts at the first frame event.
+     *
+     * @param view  the simulation about to run
+     * @param frame the frame it is at
+     */
+    void begin(SimulationView view, int frame) {
+        startNanos = System.nanoTime();
+        startSteps = view.stepCount();
+        firstFrame = frame;
+    }
+
     /** {@inheritDoc} */
     @Override
     public void onFrame(int frame, double time, SimulationView view, boolean isLast) {

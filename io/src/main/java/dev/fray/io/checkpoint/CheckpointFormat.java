@@ -1,0 +1,52 @@
+package dev.fray.io.checkpoint;
+
+import java.nio.charset.StandardCharsets;
+
+/**
+ * Layout of a Fray checkpoint file (version {@value #VERSION}), all integers and doubles little-endian:
+ *
+ * <pre>
+ *   header   magic (8 bytes: 0x89 'F' 'R' 'A' 'Y' 'C' 'P' 0x0A), version u32, section count u32,
+ *            CRC32C u32 of the 16 bytes before it
+ *   sections each: tag (4 ASCII bytes), payload length u64, payload, CRC32C u32 of tag + length + payload
+ * </pre>
+ *
+ * Sections, in this order:
+ * <pre>
+ *   SCEN  the scene file text, UTF-8
+ *   RUNS  time f64 (s), step i64, dt f64 (s), frame i32, frame-0-sent u8, 3 zero bytes, max speed f64 (m/s),
+ *         boundary work f64 (J), particle count i32, channel count i32
+ *   CTAB  channel count u32, then per channel: name length u16, name (UTF-8), width u32, particle count u32
+ *   BODY  body index per particle, i32 each
+ *   IDNT  stable id per particle, i32 each
+ *   CHNL  one per channel, in table order: width x count doubles
+ *   ATCH  zero or more: name length u16, name (UTF-8), then the attachment's bytes
+ * </pre>
+ * The first byte is not ASCII and the magic ends in a line feed, so a file mangled by a text-mode transfer fails
+ * the magic check. Every section carries its own checksum, so corruption is found before any of it is used.
+ */
+final class CheckpointFormat {
+    /** Format version written; the reader accepts exactly this one. */
+    static final int VERSION = 1;
+    static final byte[] MAGIC = {(byte) 0x89, 'F', 'R', 'A', 'Y', 'C', 'P', 0x0A};
+    static final int HEADER_BYTES = 20;
+    static final int RUNS_BYTES = 56;
+    static final String SCENE = "SCEN";
+    static final String RUN = "RUNS";
+    static final String TABLE = "CTAB";
+    static final String BODY = "BODY";
+    static final String IDS = "IDNT";
+    static final String CHANNEL = "CHNL";
+    static final String ATTACHMENT = "ATCH";
+    /** Most channels a checkpoint may list. */
+    static final int MAX_CHANNELS = 1024;
+    /** Longest channel or attachment name, bytes. */
+    static final int MAX_NAME = 255;
+
+    private CheckpointFormat() {
+    }
+
+    static byte[] tag(String t) {
+        return t.getBytes(StandardCharsets.US_ASCII);
+    }
+}
