@@ -17,8 +17,9 @@ package dev.fray.core.sim;
  * @param angularZ        angular momentum z
  * @param maxSpeed        largest particle speed, m/s
  * @param potentialEnergy gravitational potential energy -sum m g . x (zero at the origin), J
- * @param boundaryWork    kinetic energy put in by grips and moving obstacles minus that taken out by walls,
- *                        obstacles and friction, summed since the start, J
+ * @param boundaryWork    work done on the material by grips and moving obstacles since the start (impulse on
+ *                        each grid node times the velocity the boundary imposes there), J; still walls and
+ *                        obstacles do none, friction only dissipates
  */
 public record Diagnostics(long step, double time, double dt, double kineticEnergy, double elasticEnergy,
                           double momentumX, double momentumY, double momentumZ,

@@ -873,16 +873,16 @@ public final class Simulation implements SimulationView, AutoCloseable {
                     double px = ox + (bx + (l >> 4)) * dx;
                     double py = oy + (by + ((l >> 2) & 3)) * dx;
                     double pz = oz + (bz + (l & 3)) * dx;
-                    double vx0 = gv[n3], vy0 = gv[n3 + 1], vz0 = gv[n3 + 2];
                     int grip = gg[node];
                     if (grip != Integer.MAX_VALUE) {
+                        double vx0 = gv[n3], vy0 = gv[n3 + 1], vz0 = gv[n3 + 2];
                         frameVelocity(grips.get(grip).motion(), gripPose, 12 * grip, px, py, pz, gv, n3);
+                        // Work of the grip: its impulse on the node times the velocity it imposes.
+                        work += m * ((gv[n3] - vx0) * gv[n3] + (gv[n3 + 1] - vy0) * gv[n3 + 1]
+                                + (gv[n3 + 2] - vz0) * gv[n3 + 2]);
                     } else {
-                        applyWallsAndObstacles(walls, wallAt, tol, obstacles, px, py, pz, gv, n3, nrm);
+                        work += m * applyWallsAndObstacles(walls, wallAt, tol, obstacles, px, py, pz, gv, n3, nrm);
                     }
-                    // Kinetic energy the boundaries put in (grips, moving obstacles) or took out (walls, friction).
-                    work += 0.5 * m * (gv[n3] * gv[n3] + gv[n3 + 1] * gv[n3 + 1] + gv[n3 + 2] * gv[n3 + 2]
-                            - vx0 * vx0 - vy0 * vy0 - vz0 * vz0);
                 }
             }
             boundaryPartial[t] = work;
@@ -894,8 +894,9 @@ public final class Simulation implements SimulationView, AutoCloseable {
         boundaryWork += sum;
     }
 
-    private void applyWallsAndObstacles(List<Contact> walls, double[] wallAt, double tol, List<Obstacle> obstacles,
-                                        double px, double py, double pz, double[] gv, int n3, double[] nrm) {
+    /** @return work per unit node mass done by moving obstacles: velocity change . obstacle velocity, m^2/s^2 */
+    private double applyWallsAndObstacles(List<Contact> walls, double[] wallAt, double tol, List<Obstacle> obstacles,
+                                          double px, double py, double pz, double[] gv, int n3, double[] nrm) {
         for (int f = 0; f < 6; f++) {
             Contact c = walls.get(f);
             if (c.type() == Contact.Type.OPEN) {
@@ -912,13 +913,15 @@ public final class Simulation implements SimulationView, AutoCloseable {
                 c.apply(gv, n3, nrm, 0, 0, 0, 0);
             }
         }
+        double work = 0;
         for (int o = 0; o < obstacles.size(); o++) {
-            applyObstacle(obstacles.get(o), 12 * o, px, py, pz, gv, n3, nrm);
+            work += applyObstacle(obstacles.get(o), 12 * o, px, py, pz, gv, n3, nrm);
         }
+        return work;
     }
 
-    private void applyObstacle(Obstacle ob, int q, double px, double py, double pz, double[] gv, int n3,
-                               double[] nrm) {
+    private double applyObstacle(Obstacle ob, int q, double px, double py, double pz, double[] gv, int n3,
+                                 double[] nrm) {
         double[] pose = obstaclePose;
         Motion mo = ob.motion();
         // Node position in the obstacle's frame at time 0: x0 = c0 + R^T (x - c(t)).
@@ -927,14 +930,17 @@ public final class Simulation implements SimulationView, AutoCloseable {
         double ly = mo.cy() + pose[q + 1] * rx + pose[q + 4] * ry + pose[q + 7] * rz;
         double lz = mo.cz() + pose[q + 2] * rx + pose[q + 5] * ry + pose[q + 8] * rz;
         if (ob.shape().distance(lx, ly, lz) > 0) {
-            return;
+            return 0;
         }
         ob.shape().normal(lx, ly, lz, nrm, 3);
         nrm[0] = pose[q] * nrm[3] + pose[q + 1] * nrm[4] + pose[q + 2] * nrm[5];
         nrm[1] = pose[q + 3] * nrm[3] + pose[q + 4] * nrm[4] + pose[q + 5] * nrm[5];
         nrm[2] = pose[q + 6] * nrm[3] + pose[q + 7] * nrm[4] + pose[q + 8] * nrm[5];
         frameVelocity(mo, pose, q, px, py, pz, nrm, 6);
+        double vx0 = gv[n3], vy0 = gv[n3 + 1], vz0 = gv[n3 + 2];
         ob.contact().apply(gv, n3, nrm, 0, nrm[6], nrm[7], nrm[8]);
+        // Power of the contact force is its impulse times the obstacle's velocity; a still obstacle does no work.
+        return (gv[n3] - vx0) * nrm[6] + (gv[n3 + 1] - vy0) * nrm[7] + (gv[n3 + 2] - vz0) * nrm[8];
     }
 
     private final double[] scratchPose = new double[12];
