@@ -77,7 +77,7 @@ public final class DemoCommand implements Callable<Integer> {
         PrintWriter stdout = spec.commandLine().getOut();
         if (list) {
             for (String n : DemoScenes.names()) {
-                stdout.printf(Locale.ROOT, "%-12s %s%n", n, DemoScenes.description(n));
+                stdout.printf(Locale.ROOT, "%-16s %s%n", n, DemoScenes.description(n));
             }
             stdout.flush();
             return FrayCommand.OK;

@@ -15,8 +15,10 @@ import java.util.List;
 import java.util.Map;
 
 /**
- * Built-in demo scenes of our own, small enough for a quick run: about 20 000 particles on a 1/48 m grid in a unit
- * box, {@link #DEFAULT_FRAMES} frames at {@link #FRAME_RATE} frames per second. All values in SI units.
+ * Built-in demo scenes of our own, small enough for a quick run: about 10 000 to 20 000 particles on a 1/48 m grid
+ * in a unit box, {@link #DEFAULT_FRAMES} frames by default. The two without damage run at {@link #FRAME_RATE}
+ * frames per second; the fracture demos set their own frame rate so that the default frames cover the break. All
+ * values in SI units.
  *
  * <ul>
  *   <li>{@code soft-drop}: a soft rubbery slab (Neo-Hookean, E = 2e5 Pa, nu = 0.4, rho = 1000 kg/m^3) falls
@@ -25,12 +27,23 @@ import java.util.Map;
  *   <li>{@code spin-box}: a springy block (fixed corotated, E = 2e4 Pa, nu = 0.3, rho = 1000 kg/m^3) thrown
  *       sideways and upwards while spinning about a tilted axis, bouncing around a closed box whose walls are
  *       separating with friction 0.2.</li>
+ *   <li>{@code board-split}: a softwood board (fiber-reinforced, grain along its length, anisotropic phase-field
+ *       damage; softened so that waves are slow) clamped at one end is split along the grain by a wedge driven at
+ *       0.5 m/s into a check in its other end. Gravity off.</li>
+ *   <li>{@code slab-tear}: a soft gel slab (Neo-Hookean, E = 5e4 Pa, nu = 0.4, rho = 1000 kg/m^3; AT2 phase
+ *       field, Gc = 30 J/m^2, crack-speed viscosity 20 Pa s) lying on a table is torn in two by grips pulling its
+ *       ends apart at 0.12 m/s each, from a cut in its front edge.</li>
+ *   <li>{@code slab-tear-fast}, {@code slab-tear-slow}: the same with crack-speed viscosity 0 (the library
+ *       default: the crack runs as fast as the material lets it) and 100 Pa s (the crack creeps).</li>
+ *   <li>{@code slab-tear-soft}, {@code slab-tear-stiff}: the same with E = 1.25e4 Pa and 2e5 Pa at the same
+ *       fracture energy: the stiffer slab needs more stress to break (about twice as much for four times the
+ *       modulus) and its pieces ring faster.</li>
  * </ul>
  */
 public final class DemoScenes {
     /** Frames of output a demo runs for by default. */
     public static final int DEFAULT_FRAMES = 48;
-    /** Frames per second of every demo, 1/s. */
+    /** Frames per second of the demos without damage, 1/s; the fracture demos set their own. */
     public static final double FRAME_RATE = 24;
     /** Grid cell size of every demo, m. */
     public static final double CELL_SIZE = 1.0 / 48;
@@ -40,6 +53,12 @@ public final class DemoScenes {
     static {
         DESCRIPTIONS.put("soft-drop", "a soft rubbery slab drops onto a fixed ball and slides off onto the floor");
         DESCRIPTIONS.put("spin-box", "a spinning springy block thrown around a closed box");
+        DESCRIPTIONS.put("board-split", "a wedge driven into a clamped softwood board splits it along the grain");
+        DESCRIPTIONS.put("slab-tear", "two grips tear a soft gel slab in two from a cut in its edge");
+        DESCRIPTIONS.put("slab-tear-fast", "slab-tear with no crack-speed viscosity: the crack runs fastest");
+        DESCRIPTIONS.put("slab-tear-slow", "slab-tear with a large crack-speed viscosity: the crack creeps");
+        DESCRIPTIONS.put("slab-tear-soft", "slab-tear with a 4x softer gel: breaks at lower stress, rings slower");
+        DESCRIPTIONS.put("slab-tear-stiff", "slab-tear with a 4x stiffer gel: needs more stress, rings faster");
     }
 
     private static final List<String> NAMES = List.copyOf(DESCRIPTIONS.keySet());
@@ -77,6 +96,15 @@ public final class DemoScenes {
         Scene.Builder b = switch (name) {
             case "soft-drop" -> softDrop();
             case "spin-box" -> spinBox();
+            case "board-split" -> FractureDemos.boardSplit(0.25);
+            case "slab-tear" -> FractureDemos.slabTear(FractureDemos.SLAB_E, FractureDemos.SLAB_VISCOSITY, 0.3);
+            case "slab-tear-fast" -> FractureDemos.slabTear(FractureDemos.SLAB_E, 0, 0.3);
+            case "slab-tear-slow" -> FractureDemos.slabTear(FractureDemos.SLAB_E, FractureDemos.SLAB_VISCOSITY_SLOW,
+                    0.3);
+            case "slab-tear-soft" -> FractureDemos.slabTear(FractureDemos.SLAB_E / 4, FractureDemos.SLAB_VISCOSITY,
+                    0.5);
+            case "slab-tear-stiff" -> FractureDemos.slabTear(4 * FractureDemos.SLAB_E, FractureDemos.SLAB_VISCOSITY,
+                    0.2);
             default -> throw new IllegalStateException("demo " + name + " listed but not built");
         };
         return b.threads(threads).build();

@@ -1,0 +1,124 @@
+package dev.fray.examples.scenes;
+
+import dev.fray.core.boundary.Contact;
+import dev.fray.core.boundary.Grip;
+import dev.fray.core.boundary.Motion;
+import dev.fray.core.boundary.Obstacle;
+import dev.fray.core.boundary.Shapes;
+import dev.fray.core.damage.DamageModel;
+import dev.fray.core.material.MaterialLaw;
+import dev.fray.core.sim.Body;
+import dev.fray.core.sim.Scene;
+import dev.fray.damage.Elastic;
+import dev.fray.damage.Fibers;
+import dev.fray.damage.Fracture;
+import dev.fray.damage.fiber.FiberChannels;
+import dev.fray.damage.fiber.FiberFields;
+
+/**
+ * The demos that break things (see {@link DemoScenes} for the list). Each is tuned to run its default
+ * {@link DemoScenes#DEFAULT_FRAMES} frames quickly: about 10 000 particles on a 1/48 m grid, moderate wave
+ * speeds, and a frame rate that spreads the frames over the interesting part. All values in SI units.
+ */
+final class FractureDemos {
+    /** Grid cell size of the fracture demos, m: that of every demo. */
+    static final double CELL = DemoScenes.CELL_SIZE;
+
+    /** Young's modulus of the torn slab, Pa. */
+    static final double SLAB_E = 5e4;
+    /** Fracture energy of the torn slab, J/m^2; the stiffness variants keep it. */
+    static final double SLAB_GC = 30;
+    /** Crack-speed viscosity of slab-tear, Pa s; slab-tear-fast uses the library default 0. */
+    static final double SLAB_VISCOSITY = 20;
+    /** Crack-speed viscosity of slab-tear-slow, Pa s. */
+    static final double SLAB_VISCOSITY_SLOW = 100;
+    /** Speed of each grip of the torn slab, m/s. */
+    static final double SLAB_PULL = 0.12;
+
+    private FractureDemos() {
+    }
+
+    /**
+     * A soft gel slab lying on a table is torn in two by grips on its left and right ends pulling apart, starting
+     * from a cut in the middle of its front edge. Neo-Hookean (E = youngs, nu = 0.4, rho = 1000 kg/m^3) with AT2
+     * phase-field damage (Gc = {@value #SLAB_GC} J/m^2, length scale two cells, the given crack-speed viscosity).
+     *
+     * @param youngs    Young's modulus, Pa
+     * @param viscosity crack-speed viscosity, Pa s
+     * @param seconds   simulated time the default frames cover, s
+     * @return the scene builder
+     */
+    static Scene.Builder slabTear(double youngs, double viscosity, double seconds) {
+        double x0 = 0.2, x1 = 0.8, z0 = 0.32, z1 = 0.68, top = 0.06;
+        DamageModel damage = Fracture.phaseField().fractureEnergy(SLAB_GC).viscosity(viscosity).build();
+        Body slab = Body.named("slab")
+                .shape(Shapes.box(x0, 0, z0, x1, top, z1))
+                .material(Elastic.neoHookean(youngs, 0.4, 1000))
+                .damage(damage)
+                .jitter(0.25)
+                .seed(21)
+                // The starting cut: a fully broken sheet of particles from the front edge, a fifth of the way in.
+                .initialChannel(DamageModel.DAMAGE, (x, y, z, out) ->
+                        out[0] = Math.abs(x - 0.5) < 0.6 * CELL && z < z0 + 0.2 * (z1 - z0) ? 1.0 : 0.0)
+                .build();
+        double grip = 0.06;
+        return base(seconds, 15)
+                .gravity(0, -9.81, 0)
+                .wall("yMin", Contact.slip(0.2))
+                .add(slab)
+                .add(new Grip("left", "slab", Shapes.box(0, 0, 0, x0 + grip, 1, 1), Motion.linear(-SLAB_PULL, 0, 0)))
+                .add(new Grip("right", "slab", Shapes.box(x1 - grip, 0, 0, 1, 1, 1), Motion.linear(SLAB_PULL, 0, 0)));
+    }
+
+    /**
+     * A softwood board with a check (a drying crack) in one end, clamped at the other, is split along the grain by
+     * a wedge driven into the check. Grain along the length (x). Softwood is about 10 GPa along the grain and 0.5
+     * to 1 GPa across, rho = 450 to 550 kg/m^3 (values from memory, as in VALIDATION.md section D). Softened so
+     * that waves are slow enough for a quick run: a Neo-Hookean matrix of E = 3e4 Pa (nu = 0.3, rho = 500
+     * kg/m^3) reinforced along the grain by a quadratic fiber term k = 2e4 Pa (E along about 1.1e5 Pa, 3.7 times
+     * the matrix; the across-grain modulus is kept higher than the true ratio so that the wedge pries rather than
+     * crushes), with the anisotropic phase field (alpha = 10, so cracks across the grain cost sqrt(11) times more;
+     * Gc = 2 J/m^2). Gravity off, so the soft board does not droop.
+     *
+     * @param seconds simulated time the default frames cover, s
+     * @return the scene builder
+     */
+    static Scene.Builder boardSplit(double seconds) {
+        double x0 = 0.1, x1 = 0.85, y0 = 0.4, y1 = 0.6, z0 = 0.46, z1 = 0.54;
+        MaterialLaw wood = Fibers.reinforce(Elastic.neoHookean(3e4, 0.3, 500)).quadratic(2e4).build();
+        DamageModel split = Fracture.anisotropicPhaseField().fractureEnergy(2).fiberStrengths(10).build();
+        double mid = 0.5 * (y0 + y1);
+        Body board = Body.named("board")
+                .shape(Shapes.box(x0, y0, z0, x1, y1, z1))
+                .material(wood)
+                .damage(split)
+                .jitter(0.25)
+                .seed(22)
+                .initialChannel(FiberChannels.reference(1), FiberFields.uniform(1, 0, 0))
+                // The end check: a fully broken sheet of particles a third of the way in, on the mid-plane.
+                .initialChannel(DamageModel.DAMAGE, (x, y, z, out) ->
+                        out[0] = x > x1 - 0.25 && Math.abs(y - mid) < 0.6 * CELL ? 1.0 : 0.0)
+                .build();
+        // A 30 degree wedge, edge along z, its edge one cell off the check's mouth, frictionless.
+        Obstacle wedge = new Obstacle("wedge", new Wedge(x1 + CELL, mid, Math.toRadians(15), 0.12),
+                Contact.separating(0), Motion.linear(-0.5, 0, 0));
+        return base(seconds, 5)
+                .gravity(0, 0, 0)
+                .add(board)
+                .add(wedge)
+                .add(new Grip("clamp", "board", Shapes.box(0, 0, 0, x0 + 0.06, 1, 1), Motion.STILL));
+    }
+
+    /**
+     * @param seconds    simulated time of the default frames, s
+     * @param iterations cap of the phase-field iterations per step
+     */
+    private static Scene.Builder base(double seconds, int iterations) {
+        return Scene.builder()
+                .domain(0, 0, 0, 1, 1, 1)
+                .cellSize(CELL)
+                .frameRate(DemoScenes.DEFAULT_FRAMES / seconds)
+                // A loose, capped phase-field solve: warm-started every step, it is accurate enough for a picture.
+                .phaseFieldSolver(1e-3, iterations);
+    }
+}
