@@ -1371,9 +1371,6 @@ public final class Simulation implements SimulationView, AutoCloseable {
         final double[] dwx = new double[16];
         final double[] dwy = new double[16];
         final double[] dwz = new double[16];
-        final int[] nx = new int[16];
-        final int[] ny = new int[16];
-        final int[] nz = new int[16];
         final double[] normal = new double[9];
         final double[] pair = new double[2];
         final double[] local = new double[4 * LOCAL * LOCAL * LOCAL];
