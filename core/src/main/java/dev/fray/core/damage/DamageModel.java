@@ -1,6 +1,7 @@
 package dev.fray.core.damage;
 
 import dev.fray.core.material.MaterialState;
+import dev.fray.core.material.TensionSplit;
 import dev.fray.core.particles.ChannelSpec;
 
 import java.util.List;
@@ -38,6 +39,17 @@ public interface DamageModel {
      */
     default DamageModel resolvedFor(double cellSize) {
         return this;
+    }
+
+    /**
+     * The tension-compression split this model asks of the material law; the solver passes it to
+     * {@link dev.fray.core.material.MaterialLaw#splitKirchhoffStress(TensionSplit, MaterialState, int, int,
+     * double[], double[], double[], double[])}.
+     *
+     * @return the split; default {@link TensionSplit#LAW_DEFAULT}
+     */
+    default TensionSplit tensionSplit() {
+        return TensionSplit.LAW_DEFAULT;
     }
 
     /** @return the channels the model needs, including {@link #DAMAGE} */

@@ -105,6 +105,48 @@ public interface MaterialLaw {
     }
 
     /**
+     * {@link #splitKirchhoffStress(MaterialState, int, int, double[], double[], double[], double[])} with the split
+     * chosen by the caller (the damage model). The default honours {@link TensionSplit#LAW_DEFAULT} and
+     * {@link TensionSplit#NONE} and rejects the others; laws that offer more override it.
+     *
+     * @param split        the split to use
+     * @param state        particle data (input, not modified)
+     * @param from         first particle, inclusive
+     * @param to           last particle, exclusive
+     * @param tauDegraded  (output) degradable Kirchhoff stress, Pa, 9 per particle at 9(p - from)
+     * @param tauKept      (output) kept Kirchhoff stress, Pa, 9 per particle at 9(p - from)
+     * @param psiDegraded  (output) degradable energy density, J/m^3, at p - from
+     * @param psiKept      (output) kept energy density, J/m^3, at p - from
+     * @throws UnsupportedOperationException if the law does not offer the split (see {@link #supportsSplit})
+     */
+    default void splitKirchhoffStress(TensionSplit split, MaterialState state, int from, int to,
+                                      double[] tauDegraded, double[] tauKept, double[] psiDegraded,
+                                      double[] psiKept) {
+        switch (split) {
+            case LAW_DEFAULT -> splitKirchhoffStress(state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+            case NONE -> {
+                kirchhoffStress(state, from, to, tauDegraded);
+                energyDensity(state, from, to, psiDegraded);
+                java.util.Arrays.fill(tauKept, 0, 9 * (to - from), 0.0);
+                java.util.Arrays.fill(psiKept, 0, to - from, 0.0);
+            }
+            default -> throw new UnsupportedOperationException(name() + " does not offer the " + split + " split");
+        }
+    }
+
+    /**
+     * Whether {@link #splitKirchhoffStress(TensionSplit, MaterialState, int, int, double[], double[], double[],
+     * double[])} accepts the split; scenes check this when they are built, so an unsupported choice is an input
+     * error rather than a failure mid-run.
+     *
+     * @param split the split
+     * @return true if the law implements it
+     */
+    default boolean supportsSplit(TensionSplit split) {
+        return split == TensionSplit.LAW_DEFAULT || split == TensionSplit.NONE;
+    }
+
+    /**
      * Whether {@link #projectDeformation} does anything. Tells the truth: the solver skips the call when false.
      *
      * @return true for laws with a return mapping (plasticity)

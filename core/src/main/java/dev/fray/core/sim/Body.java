@@ -45,6 +45,11 @@ public record Body(String name, Shape shape, MaterialLaw material, double spacin
         Checks.inRange(f + "jitter (fraction of spacing)", jitter, 0, false, 0.5, false);
         linearVelocity = vec(f + "velocity (m/s)", linearVelocity);
         angularVelocity = vec(f + "angularVelocity (rad/s)", angularVelocity);
+        if (damage != null && !material.supportsSplit(damage.tensionSplit())) {
+            throw new dev.fray.core.error.InvalidInputException(dev.fray.core.error.FrayMessage.INCONSISTENT,
+                    f + "damage \"" + damage.name() + "\"", "asks for the " + damage.tensionSplit()
+                    + " tension-compression split, which material \"" + material.name() + "\" does not offer");
+        }
         initialChannels = initialChannels == null ? Map.of()
                 : Collections.unmodifiableMap(new LinkedHashMap<>(initialChannels));
     }

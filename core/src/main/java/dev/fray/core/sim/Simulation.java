@@ -811,7 +811,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         double[] psiD = sc.psiDegraded(n);
         double[] psiK = sc.psiKept(n);
         double[] g = sc.g(n);
-        laws[b].splitKirchhoffStress(store, from, to, tau, kept, psiD, psiK);
+        laws[b].splitKirchhoffStress(dm.tensionSplit(), store, from, to, tau, kept, psiD, psiK);
         dm.update(store, from, to, h, tau, kept, psiD, g);
         for (int i = 0; i < n; i++) {
             double gi = g[i];
@@ -1290,7 +1290,8 @@ public final class Simulation implements SimulationView, AutoCloseable {
                     int len = runEnd - runStart;
                     double[] psiD = sc.psiDegraded(len);
                     double[] g = sc.g(len);
-                    laws[bd].splitKirchhoffStress(store, runStart, runEnd, sc.tau(len), sc.kept(len), psiD, psi);
+                    laws[bd].splitKirchhoffStress(damage[bd].tensionSplit(), store, runStart, runEnd, sc.tau(len),
+                            sc.kept(len), psiD, psi);
                     damage[bd].degradation(store, runStart, runEnd, g);
                     for (int i = 0; i < len; i++) {
                         psi[i] += g[i] * psiD[i];
