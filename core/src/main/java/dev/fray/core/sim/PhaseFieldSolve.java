@@ -358,7 +358,8 @@ final class PhaseFieldSolve {
     private int stencil(Simulation.Scratch sc, int blk, int p) {
         double[] pos = sim.store.position();
         long key = sim.blockKeys[blk];
-        int baseX = 4 * SparseGrid.keyX(key), baseY = 4 * SparseGrid.keyY(key), baseZ = 4 * SparseGrid.keyZ(key);
+        int baseX = Simulation.localOrigin(SparseGrid.keyX(key)), baseY = Simulation.localOrigin(SparseGrid.keyY(key));
+        int baseZ = Simulation.localOrigin(SparseGrid.keyZ(key));
         double xi = (pos[3 * p] - sim.ox) * sim.invDx, yi = (pos[3 * p + 1] - sim.oy) * sim.invDx;
         double zi = (pos[3 * p + 2] - sim.oz) * sim.invDx;
         int bx = sim.kernel.base(xi), by = sim.kernel.base(yi), bz = sim.kernel.base(zi);
@@ -370,7 +371,6 @@ final class PhaseFieldSolve {
         sim.kernel.derivatives(fy, sc.dwy, 0);
         sim.kernel.derivatives(fz, sc.dwz, 0);
         int s = sim.kernel.support();
-        int nb = 8 * blk;
         double inv = sim.invDx;
         int k = 0;
         for (int i = 0; i < s; i++) {
@@ -379,8 +379,7 @@ final class PhaseFieldSolve {
                 int gy = by - baseY + j;
                 for (int l = 0; l < s; l++) {
                     int gz = bz - baseZ + l;
-                    int nbr = ((gx >> 2) << 2) | ((gy >> 2) << 1) | (gz >> 2);
-                    sc.node[k] = (sim.neighbours[nb + nbr] << 6) + ((gx & 3) << 4) + ((gy & 3) << 2) + (gz & 3);
+                    sc.node[k] = sim.node(blk, gx, gy, gz);
                     sc.w[k] = sc.wx[i] * sc.wy[j] * sc.wz[l];
                     sc.gx[k] = sc.dwx[i] * sc.wy[j] * sc.wz[l] * inv;
                     sc.gy[k] = sc.wx[i] * sc.dwy[j] * sc.wz[l] * inv;

@@ -73,7 +73,13 @@ public final class Simulation implements SimulationView, AutoCloseable {
     int[] blockStart = new int[65];
     private int[] blockCounts = new int[64];
     private int[] blockRank = new int[64];
-    int[] neighbours = new int[64 * 8];
+    /** Grid block of each of the 27 blocks around a particle block (offsets -1, 0, 1 per axis, x slowest). */
+    int[] neighbours = new int[64 * NEIGHBOURS];
+    /** Per particle block: smallest and largest stencil base of its particles, local coordinates (x, y, z). */
+    private int[] blockRange = new int[64 * 6];
+    private boolean[] blockLeft = new boolean[64];
+    /** Whether a particle left the reach of its block since the last sort, so the next step must sort. */
+    private boolean sortNeeded = true;
     final int[] colourStart = new int[9];
     private final int[] colourCursor = new int[9];
     int[] colourBlocks = new int[64];
@@ -483,7 +489,12 @@ public final class Simulation implements SimulationView, AutoCloseable {
 
     private void stepOnce(double h) {
         long t0 = System.nanoTime();
-        sortAndActivate();
+        if (sortNeeded) {
+            sortParticles();
+            activateBlocks();
+            sortNeeded = false;
+        }
+        zeroGrid();
         long t1 = System.nanoTime();
         scatter(h);
         long t2 = System.nanoTime();
@@ -537,7 +548,12 @@ public final class Simulation implements SimulationView, AutoCloseable {
         return kernel.base(xi) >> 2;
     }
 
-    private void sortAndActivate() {
+    /**
+     * Sorts the particles by block: counting sort on the block of each particle's first stencil node, stable so
+     * that particles keep their order within a block. Run only when some particle has left the reach of its block
+     * (see {@link #MARGIN}): moving every particle array costs as much as a scatter.
+     */
+    private void sortParticles() {
         int n = store.size();
         double[] x = store.position();
         // Keys per particle: the block holding the particle's first stencil node.
@@ -584,20 +600,31 @@ public final class Simulation implements SimulationView, AutoCloseable {
             order[blockCounts[blockRank[ids[p]]]++] = p;
         }
         store.permute(order, workers);
-        // Grid blocks: each particle block and its 7 upper neighbours, which its stencils reach.
+    }
+
+    /**
+     * From the particle blocks (keys and starts): activates the grid blocks their stencils reach (each particle
+     * block and its 26 neighbours, since particles may drift {@link #MARGIN} node beyond their block), sorts the
+     * blocks into colour classes, and finds each block's range of stencil bases.
+     *
+     * @return false if some particle lies beyond the reach of its block (the table does not fit the particles)
+     */
+    private boolean activateBlocks() {
         grid.clear();
         for (int r = 0; r < blockCount; r++) {
             long k = blockKeys[r];
             int bx = SparseGrid.keyX(k), by = SparseGrid.keyY(k), bz = SparseGrid.keyZ(k);
-            for (int nbr = 0; nbr < 8; nbr++) {
-                neighbours[8 * r + nbr] = grid.activate(SparseGrid.key(bx + (nbr >> 2), by + ((nbr >> 1) & 1),
-                        bz + (nbr & 1)));
+            for (int nbr = 0; nbr < NEIGHBOURS; nbr++) {
+                neighbours[NEIGHBOURS * r + nbr] = grid.activate(SparseGrid.key(bx + nbr / 9 - 1,
+                        by + (nbr / 3) % 3 - 1, bz + nbr % 3 - 1));
             }
         }
         grid.allocateNodes();
-        int gb = grid.blockCount();
-        workers.forEach((gb + GRID_TASK_BLOCKS - 1) / GRID_TASK_BLOCKS, (w, t) ->
-                grid.zero(t * GRID_TASK_BLOCKS, Math.min(gb, (t + 1) * GRID_TASK_BLOCKS)));
+        workers.forEach(blockCount, (w, r) -> blockLeft[r] = !measureBlock(r));
+        boolean fits = true;
+        for (int r = 0; r < blockCount; r++) {
+            fits &= !blockLeft[r];
+        }
         // Colour classes by block parity.
         int[] cc = colourCursor;
         Arrays.fill(cc, 0);
@@ -611,6 +638,80 @@ public final class Simulation implements SimulationView, AutoCloseable {
         for (int r = 0; r < blockCount; r++) {
             colourBlocks[cc[colour(blockKeys[r])]++] = r;
         }
+        return fits;
+    }
+
+    private void zeroGrid() {
+        int gb = grid.blockCount();
+        workers.forEach((gb + GRID_TASK_BLOCKS - 1) / GRID_TASK_BLOCKS, (w, t) ->
+                grid.zero(t * GRID_TASK_BLOCKS, Math.min(gb, (t + 1) * GRID_TASK_BLOCKS)));
+    }
+
+    /**
+     * How far, in nodes, a particle's first stencil node may lie outside its block before the particles are sorted
+     * again. With the block-local buffer of {@link #LOCAL} nodes starting one node below the block, blocks of one
+     * colour (8 nodes apart) still write disjoint nodes.
+     */
+    static final int MARGIN = 1;
+
+    /** Neighbour blocks held per particle block. */
+    static final int NEIGHBOURS = 27;
+
+    /** Local coordinate (0 to LOCAL - 1) of block-relative node coordinate 0: the buffer starts MARGIN below. */
+    static int localOrigin(int blockCoord) {
+        return 4 * blockCoord - MARGIN;
+    }
+
+    /** Largest local stencil base a particle may have and still be scattered from its block's buffer. */
+    private int maxLocalBase() {
+        return LOCAL - kernel.support();
+    }
+
+    /**
+     * Grid node at local coordinates (lx, ly, lz), each in [0, LOCAL), of particle block r's buffer.
+     */
+    int node(int r, int lx, int ly, int lz) {
+        int gx = lx - MARGIN, gy = ly - MARGIN, gz = lz - MARGIN;
+        int nbr = 9 * ((gx >> 2) + 1) + 3 * ((gy >> 2) + 1) + (gz >> 2) + 1;
+        return (neighbours[NEIGHBOURS * r + nbr] << 6) + ((gx & 3) << 4) + ((gy & 3) << 2) + (gz & 3);
+    }
+
+    /**
+     * Records the range of local stencil bases of block r's particles.
+     *
+     * @return false if a particle lies beyond the block's reach
+     */
+    private boolean measureBlock(int r) {
+        long key = blockKeys[r];
+        int baseX = localOrigin(SparseGrid.keyX(key)), baseY = localOrigin(SparseGrid.keyY(key));
+        int baseZ = localOrigin(SparseGrid.keyZ(key));
+        double[] x = store.position();
+        int loX = LOCAL, loY = LOCAL, loZ = LOCAL, hiX = -1, hiY = -1, hiZ = -1;
+        for (int p = blockStart[r]; p < blockStart[r + 1]; p++) {
+            int bx = kernel.base((x[3 * p] - ox) * invDx) - baseX;
+            int by = kernel.base((x[3 * p + 1] - oy) * invDx) - baseY;
+            int bz = kernel.base((x[3 * p + 2] - oz) * invDx) - baseZ;
+            loX = Math.min(loX, bx);
+            loY = Math.min(loY, by);
+            loZ = Math.min(loZ, bz);
+            hiX = Math.max(hiX, bx);
+            hiY = Math.max(hiY, by);
+            hiZ = Math.max(hiZ, bz);
+        }
+        return setRange(r, loX, loY, loZ, hiX, hiY, hiZ);
+    }
+
+    private boolean setRange(int r, int loX, int loY, int loZ, int hiX, int hiY, int hiZ) {
+        int top = maxLocalBase();
+        boolean fits = loX >= 0 && loY >= 0 && loZ >= 0 && hiX <= top && hiY <= top && hiZ <= top;
+        int[] br = blockRange;
+        br[6 * r] = Math.max(0, loX);
+        br[6 * r + 1] = Math.max(0, loY);
+        br[6 * r + 2] = Math.max(0, loZ);
+        br[6 * r + 3] = Math.min(top, hiX);
+        br[6 * r + 4] = Math.min(top, hiY);
+        br[6 * r + 5] = Math.min(top, hiZ);
+        return fits;
     }
 
     private static int colour(long key) {
@@ -624,7 +725,9 @@ public final class Simulation implements SimulationView, AutoCloseable {
             blockStart = new int[cap + 1];
             blockCounts = new int[cap];
             blockRank = new int[cap];
-            neighbours = new int[8 * cap];
+            neighbours = new int[NEIGHBOURS * cap];
+            blockRange = new int[6 * cap];
+            blockLeft = new boolean[cap];
             colourBlocks = new int[cap];
             blockMaxSpeed = new double[cap];
             blockBad = new int[cap];
@@ -652,7 +755,8 @@ public final class Simulation implements SimulationView, AutoCloseable {
         int start = blockStart[r];
         int end = blockStart[r + 1];
         long key = blockKeys[r];
-        int baseX = 4 * SparseGrid.keyX(key), baseY = 4 * SparseGrid.keyY(key), baseZ = 4 * SparseGrid.keyZ(key);
+        int baseX = localOrigin(SparseGrid.keyX(key)), baseY = localOrigin(SparseGrid.keyY(key));
+        int baseZ = localOrigin(SparseGrid.keyZ(key));
         int s = kernel.support();
         double dinv = kernel.inverseInertia(dx);
         double[] x = store.position();
@@ -665,8 +769,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         // Scatter into a dense block-local buffer (mass and momentum per node), then add it to the sparse grid
         // once: the inner loop needs no neighbour lookup and the grid sees one write per node per block.
         double[] loc = sc.local;
-        int ext = 3 + s;
-        clearLocal(loc, ext);
+        clearLocal(loc, r, s);
         double[] wx = sc.wx, wy = sc.wy, wz = sc.wz;
         for (int runStart = start; runStart < end; ) {
             int b = body[runStart];
@@ -746,33 +849,35 @@ public final class Simulation implements SimulationView, AutoCloseable {
             }
             runStart = runEnd;
         }
-        flushLocal(loc, ext, r);
+        flushLocal(loc, r, s);
     }
 
-    private static void clearLocal(double[] loc, int ext) {
-        for (int i = 0; i < ext; i++) {
-            for (int j = 0; j < ext; j++) {
+    /** Zeroes the part of the block-local buffer that block r's stencils reach. */
+    private void clearLocal(double[] loc, int r, int s) {
+        int[] br = blockRange;
+        int zFrom = br[6 * r + 2], zTo = br[6 * r + 5] + s;
+        for (int i = br[6 * r], iEnd = br[6 * r + 3] + s; i < iEnd; i++) {
+            for (int j = br[6 * r + 1], jEnd = br[6 * r + 4] + s; j < jEnd; j++) {
                 int o = 4 * ((i * LOCAL + j) * LOCAL);
-                Arrays.fill(loc, o, o + 4 * ext, 0.0);
+                Arrays.fill(loc, o + 4 * zFrom, o + 4 * zTo, 0.0);
             }
         }
     }
 
     /** Adds the block-local buffer to the grid nodes it covers. */
-    private void flushLocal(double[] loc, int ext, int r) {
+    private void flushLocal(double[] loc, int r, int s) {
         double[] gm = grid.mass();
         double[] gp = grid.momentum();
-        int nb = 8 * r;
-        for (int i = 0; i < ext; i++) {
-            for (int j = 0; j < ext; j++) {
-                for (int l = 0; l < ext; l++) {
+        int[] br = blockRange;
+        for (int i = br[6 * r], iEnd = br[6 * r + 3] + s; i < iEnd; i++) {
+            for (int j = br[6 * r + 1], jEnd = br[6 * r + 4] + s; j < jEnd; j++) {
+                for (int l = br[6 * r + 2], lEnd = br[6 * r + 5] + s; l < lEnd; l++) {
                     int q = 4 * ((i * LOCAL + j) * LOCAL + l);
                     double m = loc[q];
                     if (m == 0) {
                         continue;
                     }
-                    int node = (neighbours[nb + (((i >> 2) << 2) | ((j >> 2) << 1) | (l >> 2))] << 6)
-                            + ((i & 3) << 4) + ((j & 3) << 2) + (l & 3);
+                    int node = node(r, i, j, l);
                     gm[node] += m;
                     gp[3 * node] += loc[q + 1];
                     gp[3 * node + 1] += loc[q + 2];
@@ -785,12 +890,10 @@ public final class Simulation implements SimulationView, AutoCloseable {
     /** Tags the stencil nodes of a gripped particle with the smallest grip index touching them. */
     private void markGrip(int r, int g, int lx, int ly, int lz, int s) {
         int[] gg = grid.grip();
-        int nb = 8 * r;
         for (int i = lx; i < lx + s; i++) {
             for (int j = ly; j < ly + s; j++) {
                 for (int l = lz; l < lz + s; l++) {
-                    int node = (neighbours[nb + (((i >> 2) << 2) | ((j >> 2) << 1) | (l >> 2))] << 6)
-                            + ((i & 3) << 4) + ((j & 3) << 2) + (l & 3);
+                    int node = node(r, i, j, l);
                     if (g < gg[node]) {
                         gg[node] = g;
                     }
@@ -964,7 +1067,8 @@ public final class Simulation implements SimulationView, AutoCloseable {
         int start = blockStart[r];
         int end = blockStart[r + 1];
         long key = blockKeys[r];
-        int baseX = 4 * SparseGrid.keyX(key), baseY = 4 * SparseGrid.keyY(key), baseZ = 4 * SparseGrid.keyZ(key);
+        int baseX = localOrigin(SparseGrid.keyX(key)), baseY = localOrigin(SparseGrid.keyY(key));
+        int baseZ = localOrigin(SparseGrid.keyZ(key));
         int s = kernel.support();
         double dinv = kernel.inverseInertia(dx);
         double[] x = store.position();
@@ -973,7 +1077,8 @@ public final class Simulation implements SimulationView, AutoCloseable {
         double[] f = store.deformation();
         double[] wx = sc.wx, wy = sc.wy, wz = sc.wz;
         double[] loc = sc.local;
-        loadLocal(loc, 3 + s, r);
+        loadLocal(loc, r, s);
+        int loX = LOCAL, loY = LOCAL, loZ = LOCAL, hiX = -1, hiY = -1, hiZ = -1;
         double fastest = 0;
         int fastestP = start;
         int bad = -1;
@@ -1049,9 +1154,20 @@ public final class Simulation implements SimulationView, AutoCloseable {
             v[3 * p] = vx;
             v[3 * p + 1] = vy;
             v[3 * p + 2] = vz;
-            x[3 * p] += h * vx;
-            x[3 * p + 1] += h * vy;
-            x[3 * p + 2] += h * vz;
+            double nx = x[3 * p] + h * vx, ny = x[3 * p + 1] + h * vy, nz = x[3 * p + 2] + h * vz;
+            x[3 * p] = nx;
+            x[3 * p + 1] = ny;
+            x[3 * p + 2] = nz;
+            // Where the next step's stencil starts, to keep the block's node range and see if a sort is due.
+            int sx = kernel.base((nx - ox) * invDx) - baseX;
+            int sy = kernel.base((ny - oy) * invDx) - baseY;
+            int sz = kernel.base((nz - oz) * invDx) - baseZ;
+            loX = Math.min(loX, sx);
+            loY = Math.min(loY, sy);
+            loZ = Math.min(loZ, sz);
+            hiX = Math.max(hiX, sx);
+            hiY = Math.max(hiY, sy);
+            hiZ = Math.max(hiZ, sz);
             int c9 = 9 * p;
             double c00 = dinv * b00, c01 = dinv * b01, c02 = dinv * b02;
             double c10 = dinv * b10, c11 = dinv * b11, c12 = dinv * b12;
@@ -1103,18 +1219,18 @@ public final class Simulation implements SimulationView, AutoCloseable {
         blockMaxSpeed[r] = Math.sqrt(fastest);
         blockFastest[r] = fastestP;
         blockBad[r] = bad;
+        blockLeft[r] = !setRange(r, loX, loY, loZ, hiX, hiY, hiZ);
     }
 
     /** Copies the grid velocities a block's stencils reach into the block-local buffer. */
-    private void loadLocal(double[] loc, int ext, int r) {
+    private void loadLocal(double[] loc, int r, int s) {
         double[] gv = grid.momentum();
-        int nb = 8 * r;
-        for (int i = 0; i < ext; i++) {
-            for (int j = 0; j < ext; j++) {
-                for (int l = 0; l < ext; l++) {
+        int[] br = blockRange;
+        for (int i = br[6 * r], iEnd = br[6 * r + 3] + s; i < iEnd; i++) {
+            for (int j = br[6 * r + 1], jEnd = br[6 * r + 4] + s; j < jEnd; j++) {
+                for (int l = br[6 * r + 2], lEnd = br[6 * r + 5] + s; l < lEnd; l++) {
                     int q = 4 * ((i * LOCAL + j) * LOCAL + l);
-                    int node = (neighbours[nb + (((i >> 2) << 2) | ((j >> 2) << 1) | (l >> 2))] << 6)
-                            + ((i & 3) << 4) + ((j & 3) << 2) + (l & 3);
+                    int node = node(r, i, j, l);
                     loc[q + 1] = gv[3 * node];
                     loc[q + 2] = gv[3 * node + 1];
                     loc[q + 3] = gv[3 * node + 2];
@@ -1127,6 +1243,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         double fastest = 0;
         int fastestP = -1;
         for (int r = 0; r < blockCount; r++) {
+            sortNeeded |= blockLeft[r];
             if (blockBad[r] >= 0) {
                 int p = blockBad[r];
                 throw new SimulationDivergedException("non-finite velocity or deformation",
@@ -1336,8 +1453,10 @@ public final class Simulation implements SimulationView, AutoCloseable {
         for (String name : store.channelNames()) {
             ch.put(name, store.channel(name).clone());
         }
+        long[] keysNow = sortNeeded ? new long[0] : Arrays.copyOf(blockKeys, blockCount);
+        int[] startsNow = sortNeeded ? new int[0] : Arrays.copyOf(blockStart, blockCount + 1);
         return new SimulationState(time, step, dt, frame, frameZeroSent, maxSpeed, boundaryWork, ch,
-                store.body().clone(), store.id().clone());
+                store.body().clone(), store.id().clone(), keysNow, startsNow);
     }
 
     /**
@@ -1349,6 +1468,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
      */
     public void restoreState(SimulationState s) {
         store.restore(s.channels(), s.body(), s.id());
+        restoreBlocks(s.blockKeys(), s.blockStarts());
         time = s.time();
         step = s.step();
         dt = s.dt();
@@ -1356,6 +1476,32 @@ public final class Simulation implements SimulationView, AutoCloseable {
         frameZeroSent = s.frameZeroSent();
         maxSpeed = s.maxSpeed();
         boundaryWork = s.boundaryWork();
+    }
+
+    private void restoreBlocks(long[] keysIn, int[] startsIn) {
+        int nb = keysIn.length;
+        if (nb == 0 && startsIn.length == 0) {
+            sortNeeded = true;
+            return;
+        }
+        boolean ok = startsIn.length == nb + 1 && nb > 0 && startsIn[0] == 0 && startsIn[nb] == store.size();
+        for (int r = 0; ok && r < nb; r++) {
+            ok = startsIn[r + 1] > startsIn[r] && (r == 0 || keysIn[r] > keysIn[r - 1]);
+        }
+        if (ok) {
+            ensureBlockCapacity(nb);
+            blockCount = nb;
+            System.arraycopy(keysIn, 0, blockKeys, 0, nb);
+            System.arraycopy(startsIn, 0, blockStart, 0, nb + 1);
+            ok = activateBlocks();
+        }
+        if (!ok) {
+            sortNeeded = true;
+            throw new InvalidInputException(FrayMessage.INCONSISTENT, "saved particle blocks",
+                    "the block table does not fit the saved particles (" + nb + " blocks for " + store.size()
+                            + " particles)");
+        }
+        sortNeeded = false;
     }
 
     /** Stops the worker threads. The simulation cannot run afterwards. */

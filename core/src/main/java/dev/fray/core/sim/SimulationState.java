@@ -18,12 +18,20 @@ import java.util.Map;
  * @param channels      every particle channel by name, in declaration order (arrays owned by this record)
  * @param body          body index per particle
  * @param id            stable id per particle
+ * @param blockKeys     the particle blocks in storage order (packed block coordinates), or an empty array if the
+ *                      particles are to be sorted before the next step; the solver sorts only when a particle
+ *                      has left its block's reach, so the blocks are part of the state
+ * @param blockStarts   first particle of each block, with the particle count appended (length
+ *                      {@code blockKeys.length + 1}), or an empty array with an empty blockKeys
  */
 public record SimulationState(double time, long step, double dt, int frame, boolean frameZeroSent, double maxSpeed,
-                              double boundaryWork, Map<String, double[]> channels, int[] body, int[] id) {
+                              double boundaryWork, Map<String, double[]> channels, int[] body, int[] id,
+                              long[] blockKeys, int[] blockStarts) {
     /** Freezes the channel map. */
     public SimulationState {
         channels = Collections.unmodifiableMap(new LinkedHashMap<>(channels));
+        blockKeys = blockKeys == null ? new long[0] : blockKeys;
+        blockStarts = blockStarts == null ? new int[0] : blockStarts;
     }
 
     /** @return number of particles */

@@ -27,7 +27,7 @@ import java.nio.charset.StandardCharsets;
  */
 final class CheckpointFormat {
     /** Format version written; the reader accepts exactly this one. */
-    static final int VERSION = 1;
+    static final int VERSION = 2;
     static final byte[] MAGIC = {(byte) 0x89, 'F', 'R', 'A', 'Y', 'C', 'P', 0x0A};
     static final int HEADER_BYTES = 20;
     static final int RUNS_BYTES = 56;
@@ -36,7 +36,10 @@ final class CheckpointFormat {
     static final String TABLE = "CTAB";
     static final String BODY = "BODY";
     static final String IDS = "IDNT";
+    static final String BLOCKS = "BLKS";
     static final String CHANNEL = "CHNL";
+    /** Sections before the channels: SCEN, RUNS, CTAB, BODY, IDNT, BLKS. */
+    static final int FIXED_SECTIONS = 6;
     static final String ATTACHMENT = "ATCH";
     /** Most channels a checkpoint may list. */
     static final int MAX_CHANNELS = 1024;

@@ -181,9 +181,10 @@ public final class CheckpointReader {
                 throw bad("format version " + Integer.toUnsignedString(version) + "; this reader reads version "
                         + CheckpointFormat.VERSION);
             }
-            if (sections < 5 || sections > 5 + 2 * CheckpointFormat.MAX_CHANNELS) {
+            int fixed = CheckpointFormat.FIXED_SECTIONS;
+            if (sections < fixed || sections > fixed + 2 * CheckpointFormat.MAX_CHANNELS) {
                 throw bad("the header lists " + Integer.toUnsignedString(sections) + " sections; a checkpoint has "
-                        + "5 plus one per channel and attachment");
+                        + fixed + " plus one per channel and attachment");
             }
 
             String scene = utf8(expect(CheckpointFormat.SCENE), "the scene text");
@@ -211,7 +212,7 @@ public final class CheckpointReader {
                 throw bad("particle count " + n + " out of range");
             }
             if (channelCount < 1 || channelCount > CheckpointFormat.MAX_CHANNELS
-                    || 5 + channelCount > sections) {
+                    || fixed + channelCount > sections) {
                 throw bad("channel count " + channelCount + " does not fit the " + sections + " sections");
             }
 
@@ -257,6 +258,23 @@ public final class CheckpointReader {
                     throw bad("negative body index " + body[p] + " at particle " + p);
                 }
             }
+            ByteBuffer blocks = ByteBuffer.wrap(expect(CheckpointFormat.BLOCKS)).order(ByteOrder.LITTLE_ENDIAN);
+            int nb = blocks.capacity() >= 4 ? blocks.getInt() : -1;
+            if (nb < 0 || nb > n || blocks.capacity() != (nb == 0 ? 4 : 4 + 12L * nb + 4)) {
+                throw bad("the block table holds " + blocks.capacity() + " bytes for " + nb + " blocks; expected "
+                        + "0 to " + n + " blocks, 4 + 12 per block + 4 bytes: the file is corrupt");
+            }
+            long[] blockKeys = new long[nb];
+            int[] blockStarts = new int[nb == 0 ? 0 : nb + 1];
+            blocks.asLongBuffer().get(blockKeys);
+            blocks.position(4 + 8 * nb);
+            blocks.asIntBuffer().get(blockStarts);
+            for (int r = 0; r < nb; r++) {
+                if (blockStarts[r] < 0 || blockStarts[r + 1] <= blockStarts[r] || blockStarts[nb] != n
+                        || (r > 0 && blockKeys[r] <= blockKeys[r - 1])) {
+                    throw bad("block " + r + " of the block table is out of order: the file is corrupt");
+                }
+            }
 
             Map<String, double[]> channels = new LinkedHashMap<>();
             for (ChannelEntry e : entries) {
@@ -265,7 +283,7 @@ public final class CheckpointReader {
 
             Map<String, byte[]> attachments = new LinkedHashMap<>();
             Map<String, Long> attachmentSizes = new LinkedHashMap<>();
-            for (int a = 5 + channelCount; a < sections; a++) {
+            for (int a = fixed + channelCount; a < sections; a++) {
                 ByteBuffer at = ByteBuffer.wrap(expect(CheckpointFormat.ATTACHMENT)).order(ByteOrder.LITTLE_ENDIAN);
                 String an;
                 try {
@@ -289,7 +307,7 @@ public final class CheckpointReader {
                         java.util.Collections.unmodifiableMap(attachmentSizes), size);
             }
             SimulationState state = new SimulationState(time, step, dt, frame, zeroSent == 1, maxSpeed, work,
-                    channels, body, ids);
+                    channels, body, ids, blockKeys, blockStarts);
             return new Checkpoint(scene, state, attachments);
         }
 

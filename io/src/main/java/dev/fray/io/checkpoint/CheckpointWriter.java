@@ -57,7 +57,7 @@ public final class CheckpointWriter {
 
         ByteBuffer header = ByteBuffer.allocate(CheckpointFormat.HEADER_BYTES).order(ByteOrder.LITTLE_ENDIAN);
         header.put(CheckpointFormat.MAGIC).putInt(CheckpointFormat.VERSION)
-                .putInt(5 + channels.size() + c.attachments().size());
+                .putInt(CheckpointFormat.FIXED_SECTIONS + channels.size() + c.attachments().size());
         CRC32C crc = new CRC32C();
         crc.update(header.array(), 0, 16);
         header.putInt((int) crc.getValue());
@@ -91,6 +91,20 @@ public final class CheckpointWriter {
 
         ints(out, buf, CheckpointFormat.BODY, s.body());
         ints(out, buf, CheckpointFormat.IDS, s.id());
+        long[] blockKeys = s.blockKeys();
+        int nb = blockKeys.length;
+        Section blocks = new Section(out, buf, CheckpointFormat.BLOCKS, nb == 0 ? 4 : 4 + 12L * nb + 4);
+        blocks.room(4);
+        buf.putInt(nb);
+        for (long k : blockKeys) {
+            blocks.room(8);
+            buf.putLong(k);
+        }
+        for (int i = 0; nb > 0 && i <= nb; i++) {
+            blocks.room(4);
+            buf.putInt(s.blockStarts()[i]);
+        }
+        blocks.end();
         for (double[] a : channels.values()) {
             Section ch = new Section(out, buf, CheckpointFormat.CHANNEL, 8L * a.length);
             for (double v : a) {
@@ -125,6 +139,12 @@ public final class CheckpointWriter {
         if (n == 0 || s.body().length != n) {
             throw new InvalidInputException(FrayMessage.INCONSISTENT, "checkpoint state",
                     "has " + n + " ids and " + s.body().length + " body indices; both must be the same, > 0");
+        }
+        int nb = s.blockKeys().length;
+        if (nb > n || s.blockStarts().length != (nb == 0 ? 0 : nb + 1)) {
+            throw new InvalidInputException(FrayMessage.INCONSISTENT, "checkpoint state",
+                    "has " + nb + " particle blocks and " + s.blockStarts().length + " block starts for " + n
+                            + " particles; expected at most one block per particle and one start more than blocks");
         }
         if (s.channels().size() > CheckpointFormat.MAX_CHANNELS) {
             throw new InvalidInputException(FrayMessage.OUT_OF_RANGE, "checkpoint channels", s.channels().size(),

@@ -164,11 +164,11 @@ class CheckpointTest extends FrayTestBase {
             data = bytes(capture(sim, scene()));
         }
         ByteBuffer h = ByteBuffer.wrap(data).order(ByteOrder.LITTLE_ENDIAN);
-        h.putInt(8, 2);
+        h.putInt(8, 3);
         CRC32C crc = new CRC32C();
         crc.update(data, 0, 16);
         h.putInt(16, (int) crc.getValue());
-        assertTrue(rejected(data).getMessage().contains("format version 2; this reader reads version 1"));
+        assertTrue(rejected(data).getMessage().contains("format version 3; this reader reads version 2"));
     }
 
     @Test
