@@ -6,9 +6,13 @@ import dev.fray.core.boundary.Shapes;
 import dev.fray.core.error.Checks;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
+import dev.fray.core.plugin.PluginRegistry;
 import dev.fray.core.sim.Body;
 import dev.fray.core.sim.Scene;
 import dev.fray.damage.Elastic;
+import dev.fray.io.scene.LoadedScene;
+import dev.fray.io.scene.OutputSettings;
+import dev.fray.io.scene.SceneDescription;
 
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -91,12 +95,28 @@ public final class DemoScenes {
      *         name, OUT_OF_RANGE for a bad thread count
      */
     public static Scene build(String name, int threads) {
+        return load(name, threads).scene();
+    }
+
+    /**
+     * Builds a demo scene with what a scene file of it needs besides: how its models were made, a one-line
+     * description, and output settings of {@link #DEFAULT_FRAMES} frames (PLY frames and the diagnostics CSV, a
+     * checkpoint every 12 frames).
+     *
+     * @param name    one of {@link #names()}
+     * @param threads worker threads, 1 to 1024 (results do not depend on it)
+     * @return the scene with its output settings and description, named "demo NAME", with no folder
+     * @throws InvalidInputException as {@link #build}
+     */
+    public static LoadedScene load(String name, int threads) {
         check(name);
         Checks.inRange("threads", threads, 1, 1024);
+        SceneDescription d = new SceneDescription(PluginRegistry.load(DemoScenes.class.getClassLoader()))
+                .text("The built-in demo " + name + ": " + DESCRIPTIONS.get(name) + ".");
         Scene.Builder b = switch (name) {
             case "soft-drop" -> softDrop();
             case "spin-box" -> spinBox();
-            case "board-split" -> FractureDemos.boardSplit(0.25);
+            case "board-split" -> FractureDemos.boardSplit(0.25, d);
             case "slab-tear" -> FractureDemos.slabTear(FractureDemos.SLAB_E, FractureDemos.SLAB_VISCOSITY, 0.3);
             case "slab-tear-fast" -> FractureDemos.slabTear(FractureDemos.SLAB_E, 0, 0.3);
             case "slab-tear-slow" -> FractureDemos.slabTear(FractureDemos.SLAB_E, FractureDemos.SLAB_VISCOSITY_SLOW,
@@ -107,7 +127,9 @@ public final class DemoScenes {
                     0.2);
             default -> throw new IllegalStateException("demo " + name + " listed but not built");
         };
-        return b.threads(threads).build();
+        OutputSettings output = OutputSettings.defaults().withFrames(DEFAULT_FRAMES).withCheckpoints(12,
+                OutputSettings.DEFAULT_KEEP_CHECKPOINTS);
+        return new LoadedScene(b.threads(threads).build(), output, d, "demo " + name, null);
     }
 
     private static void check(String name) {

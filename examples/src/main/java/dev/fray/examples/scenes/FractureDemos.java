@@ -13,12 +13,18 @@ import dev.fray.damage.Elastic;
 import dev.fray.damage.Fibers;
 import dev.fray.damage.Fracture;
 import dev.fray.damage.fiber.FiberChannels;
-import dev.fray.damage.fiber.FiberFields;
+import dev.fray.io.scene.RegionField;
+import dev.fray.io.scene.SceneDescription;
+import dev.fray.io.scene.Wedge;
+
+import java.util.Map;
 
 /**
  * The demos that break things (see {@link DemoScenes} for the list). Each is tuned to run its default
  * {@link DemoScenes#DEFAULT_FRAMES} frames quickly: about 10 000 particles on a 1/48 m grid, moderate wave
- * speeds, and a frame rate that spreads the frames over the interesting part. All values in SI units.
+ * speeds, and a frame rate that spreads the frames over the interesting part. Every part is one a scene file can
+ * hold (the starting cuts are {@link RegionField}s, the wedge a {@link Wedge}, fiber directions come from the
+ * {@link SceneDescription}), so {@code SceneWriter} writes each demo as it is. All values in SI units.
  */
 final class FractureDemos {
     /** Grid cell size of the fracture demos, m: that of every demo. */
@@ -58,8 +64,8 @@ final class FractureDemos {
                 .jitter(0.25)
                 .seed(21)
                 // The starting cut: a fully broken sheet of particles from the front edge, a fifth of the way in.
-                .initialChannel(DamageModel.DAMAGE, (x, y, z, out) ->
-                        out[0] = Math.abs(x - 0.5) < 0.6 * CELL && z < z0 + 0.2 * (z1 - z0) ? 1.0 : 0.0)
+                .initialChannel(DamageModel.DAMAGE, RegionField.of(Shapes.box(0.5 - 0.6 * CELL, -CELL, z0 - CELL,
+                        0.5 + 0.6 * CELL, top + CELL, z0 + 0.2 * (z1 - z0)), 1.0))
                 .build();
         double grip = 0.06;
         return base(seconds, 15)
@@ -80,10 +86,11 @@ final class FractureDemos {
      * crushes), with the anisotropic phase field (alpha = 10, so cracks across the grain cost sqrt(11) times more;
      * Gc = 2 J/m^2). Gravity off, so the soft board does not droop.
      *
-     * @param seconds simulated time the default frames cover, s
+     * @param seconds     simulated time the default frames cover, s
+     * @param description where the fiber direction field is made and described
      * @return the scene builder
      */
-    static Scene.Builder boardSplit(double seconds) {
+    static Scene.Builder boardSplit(double seconds, SceneDescription description) {
         double x0 = 0.1, x1 = 0.85, y0 = 0.4, y1 = 0.6, z0 = 0.46, z1 = 0.54;
         MaterialLaw wood = Fibers.reinforce(Elastic.neoHookean(3e4, 0.3, 500)).quadratic(2e4).build();
         DamageModel split = Fracture.anisotropicPhaseField().fractureEnergy(2).fiberStrengths(10).build();
@@ -94,10 +101,11 @@ final class FractureDemos {
                 .damage(split)
                 .jitter(0.25)
                 .seed(22)
-                .initialChannel(FiberChannels.reference(1), FiberFields.uniform(1, 0, 0))
+                .initialChannel(FiberChannels.reference(1), description.fiberField("uniform",
+                        Map.of("direction", new double[] {1, 0, 0})))
                 // The end check: a fully broken sheet of particles a third of the way in, on the mid-plane.
-                .initialChannel(DamageModel.DAMAGE, (x, y, z, out) ->
-                        out[0] = x > x1 - 0.25 && Math.abs(y - mid) < 0.6 * CELL ? 1.0 : 0.0)
+                .initialChannel(DamageModel.DAMAGE, RegionField.of(Shapes.box(x1 - 0.25, mid - 0.6 * CELL,
+                        z0 - CELL, x1 + CELL, mid + 0.6 * CELL, z1 + CELL), 1.0))
                 .build();
         // A 30 degree wedge, edge along z, its edge one cell off the check's mouth, frictionless.
         Obstacle wedge = new Obstacle("wedge", new Wedge(x1 + CELL, mid, Math.toRadians(15), 0.12),

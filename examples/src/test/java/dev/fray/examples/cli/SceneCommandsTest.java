@@ -215,11 +215,26 @@ class SceneCommandsTest {
     }
 
     @ParameterizedTest
-    @ValueSource(strings = {"soft-drop", "spin-box", "bean-drop"})
+    @ValueSource(strings = {"soft-drop", "spin-box", "bean-drop", "board-split", "slab-tear", "slab-tear-fast",
+        "slab-tear-slow", "slab-tear-soft", "slab-tear-stiff"})
     void shippedScenesPassCheck(String name) {
         Run r = fray("check", Path.of("scenes", name + ".json").toString(), "--threads", "2");
         assertEquals(0, r.code(), r.err());
         assertTrue(r.out().contains("no warnings"), r.out());
+    }
+
+    /** A shipped fracture scene runs from the command line; two frames keep it short. */
+    @Test
+    void shippedSlabTearRuns() {
+        Path out = tmp.resolve("slab");
+        Run r = fray("run", Path.of("scenes", "slab-tear.json").toString(), "--out", out.toString(), "--frames", "2",
+                "--threads", "2");
+        assertEquals(0, r.code(), r.err());
+        for (int k = 0; k <= 2; k++) {
+            assertTrue(Files.isRegularFile(out.resolve(String.format("frame_%05d.ply", k))), "frame " + k);
+        }
+        assertFalse(Files.exists(out.resolve("frame_00003.ply")), "stops after two frames");
+        assertTrue(Files.isRegularFile(out.resolve("summary.json")));
     }
 
     /** The complete example of docs/scene-format.md is a valid scene that passes check without warnings. */

@@ -70,13 +70,14 @@ public final class SceneReader {
     static final List<String> CONTACT_KEYS = List.of("type", "friction");
     static final List<String> CONTACT_TYPES = List.of("open", "sticky", "slip", "separating");
     static final List<String> BODY_KEYS = List.of("name", "group", "shape", "material", "damage",
-            "fiberDirections", "spacing", "jitter", "seed", "velocity", "angularVelocity");
-    static final List<String> SHAPE_TYPES = List.of("box", "sphere", "cylinder", "halfSpace", "mesh");
+            "fiberDirections", "initialValues", "spacing", "jitter", "seed", "velocity", "angularVelocity");
+    static final List<String> SHAPE_TYPES = List.of("box", "sphere", "cylinder", "halfSpace", "wedge", "mesh");
     static final Map<String, List<String>> SHAPE_KEYS = Map.of(
             "box", List.of("type", "min", "max"),
             "sphere", List.of("type", "center", "radius"),
             "cylinder", List.of("type", "center", "axis", "radius", "halfLength"),
             "halfSpace", List.of("type", "point", "normal"),
+            "wedge", List.of("type", "edgeX", "edgeY", "halfAngle", "depth"),
             "mesh", MeshSupport.KEYS);
     static final List<String> FIBER_TERM_TYPES = List.of("quadratic", "exponential");
     static final Map<String, List<String>> FIBER_TERM_KEYS = Map.of(
@@ -90,6 +91,9 @@ public final class SceneReader {
             "mesh", List.of("type", "attribute"));
     static final List<String> FIBER_FIELD_TYPES = List.of("uniform", "circumferential", "radial", "helical",
             "mesh");
+    static final List<String> INITIAL_VALUE_KEYS = List.of("channel", "region", "value");
+    /** Most initial-value regions of one body. */
+    static final int MAX_REGIONS = 1000;
     static final List<String> OBSTACLE_KEYS = List.of("name", "shape", "contact", "motion");
     static final List<String> MOTION_KEYS = List.of("velocity", "angularVelocity", "pivot");
     static final List<String> GRIP_KEYS = List.of("name", "body", "region", "motion");
@@ -575,14 +579,19 @@ public final class SceneReader {
             double[] v = f.vector("velocity", new double[3], Range.closed(-1e6, 1e6, "m/s"), "initial velocity");
             double[] w = f.vector("angularVelocity", new double[3], Range.closed(-1e6, 1e6, "rad/s"),
                     "initial angular velocity");
-            Map<String, ChannelField> fibers = fiberDirections(f, law, damage, shape);
+            Map<String, ChannelSpec> declared = declared(law, damage);
+            Map<String, ChannelField> fibers = fiberDirections(f, law, declared.keySet(), shape);
+            Map<String, ChannelField> values = initialValues(f, law, damageOk, declared);
             if (name == null || shape == null || law == null || !damageOk || spacing == null || jitter == null
-                    || seed == null || v == null || w == null || fibers == null) {
+                    || seed == null || v == null || w == null || fibers == null || values == null) {
                 return null;
             }
             Body.Builder b = Body.named(name).material(law).damage(damage).spacing(spacing).jitter(jitter)
                     .seed(seed).velocity(v[0], v[1], v[2]).angularVelocity(w[0], w[1], w[2]);
             for (Map.Entry<String, ChannelField> e : fibers.entrySet()) {
+                b.initialChannel(e.getKey(), e.getValue());
+            }
+            for (Map.Entry<String, ChannelField> e : values.entrySet()) {
                 b.initialChannel(e.getKey(), e.getValue());
             }
             if (group != null) {
@@ -634,6 +643,22 @@ public final class SceneReader {
                         Double h = f.number("halfLength", null, Range.positive("m"), "half the length");
                         if (c != null && a != null && r != null && h != null) {
                             s = Shapes.cylinder(c[0], c[1], c[2], a[0], a[1], a[2], r, h);
+                        }
+                        break;
+                    }
+                    case "wedge": {
+                        Double ex = f.number("edgeX", null, metres, "x of the edge, m");
+                        Double ey = f.number("edgeY", null, metres, "y of the edge, m");
+                        Double half = f.number("halfAngle", null, new Range(0, true, 0.5 * Math.PI, true, "rad"),
+                                "half the opening angle");
+                        Double depth = f.number("depth", null, Range.positive("m"), "depth behind the edge");
+                        if (ex != null && ey != null && half != null && depth != null) {
+                            if (bounded) {
+                                f.error("type", "a wedge is unbounded along z and cannot be filled with particles; "
+                                        + "use it for obstacles, grip regions and initial-value regions");
+                                return null;
+                            }
+                            s = new Wedge(ex, ey, half, depth);
                         }
                         break;
                     }
@@ -720,10 +745,9 @@ public final class SceneReader {
             boolean ok = true;
             for (int i = 0; i < items.size(); i++) {
                 String at = JsonPaths.index(path, i);
-                Node n = items.get(i);
-                if (!(n instanceof Obj o)) {
-                    problems.at(at, n.line, n.column, "must be an object {\"type\": \"quadratic\", \"stiffness\": Pa}"
-                            + " or {\"type\": \"exponential\", \"k1\": Pa, \"k2\": ...}, got " + n.kind());
+                Obj o = item(items.get(i), at, "{\"type\": \"quadratic\", \"stiffness\": Pa} or {\"type\": "
+                        + "\"exponential\", \"k1\": Pa, \"k2\": ...}");
+                if (o == null) {
                     ok = false;
                     continue;
                 }
@@ -887,23 +911,94 @@ public final class SceneReader {
             }
         }
 
-        private Map<String, ChannelField> fiberDirections(Fields body, MaterialLaw law, DamageModel damage,
+        /** @return a list item as an object, or null after reporting that it must be one (what: its form) */
+        private Obj item(Node n, String at, String what) {
+            if (n instanceof Obj o) {
+                return o;
+            }
+            problems.at(at, n.line, n.column, "must be an object " + what + ", got " + n.kind());
+            return null;
+        }
+
+        /** The channels a body's law and damage model declare, by name; either may be null. */
+        private static Map<String, ChannelSpec> declared(MaterialLaw law, DamageModel damage) {
+            Map<String, ChannelSpec> out = new LinkedHashMap<>();
+            if (law != null) {
+                for (ChannelSpec s : law.channels()) {
+                    out.put(s.name(), s);
+                }
+            }
+            if (damage != null) {
+                for (ChannelSpec s : damage.channels()) {
+                    out.put(s.name(), s);
+                }
+            }
+            return out;
+        }
+
+        /**
+         * A body's {@code initialValues}: per scalar channel, the regions in list order as one {@link RegionField}.
+         * Channel names are judged only once the law and the damage model were read.
+         */
+        private Map<String, ChannelField> initialValues(Fields body, MaterialLaw law, boolean damageOk,
+                                                        Map<String, ChannelSpec> declared) {
+            Map<String, ChannelField> out = new LinkedHashMap<>();
+            List<Node> items = body.list("initialValues", false, MAX_REGIONS, "initial values of channels by region");
+            if (items == null) {
+                return body.has("initialValues") ? null : out;
+            }
+            List<String> scalars = new ArrayList<>();
+            for (ChannelSpec s : declared.values()) {
+                if (s.width() == 1) {
+                    scalars.add(s.name());
+                }
+            }
+            boolean judge = law != null && damageOk;
+            boolean ok = true;
+            for (int i = 0; i < items.size(); i++) {
+                String at = JsonPaths.index(body.pathOf("initialValues"), i);
+                Obj o = item(items.get(i), at, "{\"channel\": name, \"region\": shape, \"value\": number}");
+                if (o == null) {
+                    ok = false;
+                    continue;
+                }
+                Fields f = new Fields(problems, o, at, INITIAL_VALUE_KEYS);
+                String channel = f.string("channel", null, null, "a scalar channel of the body: "
+                        + (scalars.isEmpty() ? "(none declared)" : String.join(", ", scalars)));
+                ChannelSpec spec = channel == null ? null : declared.get(channel);
+                if (channel != null && judge && (spec == null || spec.width() != 1)) {
+                    String best = Suggest.closest(channel, scalars);
+                    f.error("channel", (spec == null ? "the body has no channel \"" + channel + "\""
+                            : "\"" + channel + "\" has " + spec.width() + " components; only scalar channels take "
+                            + "initial values here (fiber directions go in fiberDirections)")
+                            + "; scalar channels of its material and damage model: "
+                            + (scalars.isEmpty() ? "(none)" : String.join(", ", scalars))
+                            + (best == null || best.equals(channel) ? "" : "; did you mean \"" + best + "\"?"));
+                    spec = null;
+                }
+                Obj ro = f.object("region", true, "the region whose particles take the value, any shape");
+                Shape region = ro == null ? null : shape(ro, f.pathOf("region"), false);
+                // Damage means 0 intact to 1 broken; other channels take any finite value in their own unit.
+                Range range = DamageModel.DAMAGE.equals(channel) ? Range.closed(0, 1, "")
+                        : Range.any(spec == null ? "" : spec.unit());
+                Double value = f.number("value", null, range, "value inside the region");
+                if (spec == null || region == null || value == null) {
+                    ok = false;
+                    continue;
+                }
+                ChannelField before = out.get(channel);
+                out.put(channel, before == null ? RegionField.of(region, value)
+                        : ((RegionField) before).then(region, value));
+            }
+            return ok ? out : null;
+        }
+
+        private Map<String, ChannelField> fiberDirections(Fields body, MaterialLaw law, Set<String> declared,
                                                           Shape shape) {
             Map<String, ChannelField> out = new LinkedHashMap<>();
             List<Node> items = body.list("fiberDirections", false, 3, "fiber directions of families 1 to 3");
             if (items == null) {
                 return body.has("fiberDirections") ? null : out;
-            }
-            Set<String> declared = new HashSet<>();
-            if (law != null) {
-                for (ChannelSpec s : law.channels()) {
-                    declared.add(s.name());
-                }
-            }
-            if (damage != null) {
-                for (ChannelSpec s : damage.channels()) {
-                    declared.add(s.name());
-                }
             }
             boolean ok = true;
             for (int i = 0; i < items.size(); i++) {

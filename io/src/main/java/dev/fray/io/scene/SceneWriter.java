@@ -13,6 +13,7 @@ import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.kernel.Kernel;
 import dev.fray.core.material.MaterialLaw;
+import dev.fray.core.material.TensionSplit;
 import dev.fray.core.particles.ChannelField;
 import dev.fray.core.sim.Body;
 import dev.fray.core.sim.Scene;
@@ -21,6 +22,9 @@ import dev.fray.damage.elastic.FixedCorotated;
 import dev.fray.damage.elastic.HenckyStVK;
 import dev.fray.damage.elastic.NeoHookean;
 import dev.fray.damage.fiber.FiberReinforced;
+import dev.fray.damage.fracture.AnisotropicPhaseField;
+import dev.fray.damage.fracture.PhaseFieldAT2;
+import dev.fray.damage.fracture.RankineDamage;
 import dev.fray.damage.plugin.ElasticLawProviders;
 import dev.fray.io.AtomicFiles;
 
@@ -36,17 +40,21 @@ import java.util.function.UnaryOperator;
 /**
  * Writes scenes as scene files that {@link SceneReader} reads back to an equal scene: the same settings, shapes,
  * contacts, motions and bodies, and models made from the same names and parameters. Analytic shapes, contacts,
- * motions and grips are written from the core's own records; material laws, damage models, fiber direction fields
- * and meshes from their {@link SceneDescription} (built-in elastic laws and fiber-reinforced laws are recognised
- * without one). Doubles are written so that they read back to the same bits; a cylinder axis or plane normal is
- * written normalised, as the core keeps it.
+ * motions, grips, {@link Wedge} shapes and {@link RegionField} initial values are written from their own records;
+ * material laws, damage models, fiber direction fields and meshes from their {@link SceneDescription}. Without a
+ * description, the built-in elastic laws, fiber-reinforced laws and the damage models of
+ * {@code dev.fray.damage.Fracture} are written from their public parameters; a damage model that asks for a
+ * tension-compression split other than the law's default gets a {@code "split"} parameter. Doubles are written so
+ * that they read back to the same bits; a cylinder axis or plane normal is written normalised, as the core keeps
+ * it.
  *
  * <p>Mesh shapes are written with their file name as the scene gave it; {@link #toJson(LoadedScene, Path)} and
  * {@link #write} rewrite relative names for the folder the text goes to.
  *
  * <p>What cannot be written, and is reported as {@link InvalidInputException} naming the body: a law or model
- * with no description, a body with an initial velocity field (a Java function), and initial channels other than
- * described fiber directions. Stateless and thread-safe.
+ * with no description (or a Rankine model given a fracture energy, whose Young's modulus it does not expose), a body
+ * with an initial velocity field (a Java function), and initial channels other than described fiber directions and
+ * {@link RegionField}s of scalar channels. Stateless and thread-safe.
  */
 public final class SceneWriter {
     private SceneWriter() {
@@ -250,9 +258,14 @@ public final class SceneWriter {
         if (b.damage() != null) {
             m.put("damage", model("model", b.damage(), description, who));
         }
-        List<Object> fibers = fiberDirections(b, description, who);
+        List<Object> fibers = new ArrayList<>();
+        List<Object> values = new ArrayList<>();
+        initialChannels(b, description, who, files, fibers, values);
         if (!fibers.isEmpty()) {
             m.put("fiberDirections", fibers);
+        }
+        if (!values.isEmpty()) {
+            m.put("initialValues", values);
         }
         if (!Double.isNaN(b.spacing())) {
             m.put("spacing", b.spacing());
@@ -286,7 +299,8 @@ public final class SceneWriter {
     /** {"law" or "model": name, parameters...} from the description, or from a built-in elastic law. */
     private static Map<String, Object> model(String nameKey, Object model, SceneDescription description,
                                              String who) {
-        ModelDescription d = description.of(model).orElseGet(() -> builtIn(model));
+        ModelDescription d = description.of(model).orElseGet(() -> model instanceof DamageModel dm
+                ? fracture(dm, who) : builtIn(model));
         if (d == null) {
             String kind = model instanceof DamageModel ? "damage model" : "material law";
             String name = model instanceof DamageModel dm ? dm.name() : ((MaterialLaw) model).name();
@@ -297,7 +311,77 @@ public final class SceneWriter {
         Map<String, Object> m = new LinkedHashMap<>();
         m.put(nameKey, d.name());
         putParameters(m, d);
+        if (model instanceof DamageModel dm && dm.tensionSplit() != TensionSplit.LAW_DEFAULT
+                && !m.containsKey(SPLIT)) {
+            m.put(SPLIT, splitName(dm.tensionSplit()));
+        }
         return m;
+    }
+
+    /** Parameter name of a damage model's tension-compression split. */
+    static final String SPLIT = "split";
+
+    /** @return a split as a scene file names it: the enum name in lower case with dashes, e.g. "spectral" */
+    static String splitName(TensionSplit split) {
+        return split.name().toLowerCase(Locale.ROOT).replace('_', '-');
+    }
+
+    /**
+     * The registry parameters of a damage model made by the {@code Fracture} builders, read from its accessors;
+     * parameters at their defaults are left out. Null for other models.
+     */
+    private static ModelDescription fracture(DamageModel model, String who) {
+        Map<String, Object> p = new LinkedHashMap<>();
+        if (model instanceof PhaseFieldAT2 pf) {
+            phaseField(p, pf.fractureEnergy(), pf.lengthScale(), pf.viscosity(), pf.residualStiffness());
+            return new ModelDescription(PhaseFieldAT2.NAME, p);
+        }
+        if (model instanceof AnisotropicPhaseField af) {
+            phaseField(p, af.fractureEnergy(), af.lengthScale(), af.viscosity(), af.residualStiffness());
+            for (int k = 1; k <= af.families(); k++) {
+                p.put("fiberStrength" + k, af.fiberStrength(k));
+            }
+            if (af.stressDriven()) {
+                p.put("criticalStressAlong", af.criticalStressAlong());
+                p.put("criticalStressAcross", af.criticalStressAcross());
+            }
+            if (af.stressDrivingSlope() != AnisotropicPhaseField.DEFAULT_STRESS_DRIVING_SLOPE) {
+                p.put("stressDrivingSlope", af.stressDrivingSlope());
+            }
+            return new ModelDescription(AnisotropicPhaseField.NAME, p);
+        }
+        if (model instanceof RankineDamage r) {
+            if (!Double.isNaN(r.fractureEnergy())) {
+                throw cannot(who, "its damage model \"rankine\" was given a fracture energy, and the model does not "
+                        + "expose the Young's modulus that goes with it; make it with SceneDescription.damageModel("
+                        + "\"rankine\", parameters) or attach a description with describe(...)");
+            }
+            p.put("criticalStress", r.criticalStress());
+            p.put("softeningStress", r.softeningStress());
+            putUnlessDefault(p, "bandWidth", r.bandWidth(), Double.NaN);
+            putUnlessDefault(p, "viscosity", r.viscosity(), 0);
+            if (r.degradationFunction() == RankineDamage.Degradation.QUADRATIC) {
+                p.put("degradation", "quadratic");
+            }
+            putUnlessDefault(p, "residualStiffness", r.residualStiffness(), RankineDamage.DEFAULT_RESIDUAL_STIFFNESS);
+            return new ModelDescription(RankineDamage.NAME, p);
+        }
+        return null;
+    }
+
+    private static void phaseField(Map<String, Object> p, double gc, double length, double viscosity,
+                                   double residual) {
+        p.put("fractureEnergy", gc);
+        putUnlessDefault(p, "lengthScale", length, Double.NaN);
+        putUnlessDefault(p, "viscosity", viscosity, 0);
+        putUnlessDefault(p, "residualStiffness", residual, PhaseFieldAT2.DEFAULT_RESIDUAL_STIFFNESS);
+    }
+
+    /** Puts a value that differs from the default (compared by bits, so NaN matches NaN and -0.0 is kept). */
+    private static void putUnlessDefault(Map<String, Object> p, String key, double value, double fallback) {
+        if (Double.doubleToLongBits(value) != Double.doubleToLongBits(fallback)) {
+            p.put(key, value);
+        }
     }
 
     private static ModelDescription builtIn(Object model) {
@@ -336,23 +420,39 @@ public final class SceneWriter {
         }
     }
 
-    private static List<Object> fiberDirections(Body b, SceneDescription description, String who) {
+    /** Fiber directions (fiber-1 up to fiber-3, in order) and initial-value regions of scalar channels. */
+    private static void initialChannels(Body b, SceneDescription description, String who,
+                                        UnaryOperator<String> files, List<Object> fibers, List<Object> values) {
         Map<String, ChannelField> ch = b.initialChannels();
-        List<Object> out = new ArrayList<>();
-        for (int k = 1; k <= ch.size(); k++) {
-            ChannelField f = ch.get("fiber-" + k);
-            if (f == null) {
-                throw cannot(who, "has initial channels " + ch.keySet() + "; a scene file holds only fiber "
-                        + "directions, fiber-1 up to fiber-3 in order");
+        int families = 0;
+        while (ch.containsKey("fiber-" + (families + 1))) {
+            families++;
+        }
+        Object[] byFamily = new Object[families];
+        for (Map.Entry<String, ChannelField> e : ch.entrySet()) {
+            String name = e.getKey();
+            ChannelField f = e.getValue();
+            if (f instanceof RegionField rf && !name.matches("fiber-[0-9]+")) {
+                for (RegionField.Region r : rf.regions()) {
+                    values.add(map("channel", name, "region", shape(r.shape(), description, who, files),
+                            "value", r.value()));
+                }
+                continue;
+            }
+            int k = name.matches("fiber-[1-3]") ? name.charAt(6) - '0' : 0;
+            if (k == 0 || k > families) {
+                throw cannot(who, "has the initial channel \"" + name + "\", which a scene file cannot hold; it "
+                        + "holds fiber directions (fiber-1 up to fiber-3, in order) and RegionField values of other "
+                        + "channels");
             }
             ModelDescription d = description.of(f).orElseThrow(() -> cannot(who, "its fiber directions of family "
-                    + "fiber-" + ch.size() + " were not made by SceneDescription.fiberField"));
+                    + name + " were not made by SceneDescription.fiberField"));
             Map<String, Object> m = new LinkedHashMap<>();
             m.put("type", d.name());
             putParameters(m, d);
-            out.add(m);
+            byFamily[k - 1] = m;
         }
-        return out;
+        fibers.addAll(List.of(byFamily));
     }
 
     private static Map<String, Object> shape(Shape s, SceneDescription description, String who,
@@ -372,9 +472,13 @@ public final class SceneWriter {
             return map("type", "halfSpace", "point", new double[] {h.px(), h.py(), h.pz()},
                     "normal", new double[] {h.nx(), h.ny(), h.nz()});
         }
+        if (s instanceof Wedge w) {
+            return map("type", "wedge", "edgeX", w.apexX(), "edgeY", w.apexY(), "halfAngle", w.halfAngle(),
+                    "depth", w.depth());
+        }
         ModelDescription d = description.of(s).orElseThrow(() -> cannot(who, "has a shape of type "
                 + s.getClass().getSimpleName() + " that a scene file cannot describe; use box, sphere, cylinder, "
-                + "halfSpace or a mesh file"));
+                + "halfSpace, wedge or a mesh file"));
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("type", d.name());
         putParameters(m, d);

@@ -203,6 +203,42 @@ class SceneErrorsTest extends FrayTestBase {
         at(e.problems().get(1), "bodies[1].name", 15, "already the name of bodies[0]");
     }
 
+    /** docs/scene-format.md, "initial values" and "shapes": a scalar channel, damage in [0, 1], a wedge's ranges. */
+    @Test
+    void initialValuesAndWedgesAreChecked() throws IOException {
+        String region = "{\"type\": \"box\", \"min\": [0.4, 0.4, 0.4], \"max\": [0.5, 0.6, 0.6]}";
+        String text = valid().replace("\"jitter\": 0.2", "\"jitter\": 0.2,\n"                        // 13
+                + "      \"damage\": {\"model\": \"phase-field-at2\", \"fractureEnergy\": 5},\n"         // 14
+                + "      \"initialValues\": [\n"                                                        // 15
+                + "        {\"channel\": \"damgae\", \"region\": " + region + ", \"value\": 1},\n"        // 16
+                + "        {\"channel\": \"damage\", \"region\": " + region + ", \"value\": 1.5},\n"      // 17
+                + "        {\"channel\": \"fiber-1\", \"region\": " + region + ", \"value\": 0},\n"       // 18
+                + "        {\"channel\": \"damage\", \"value\": 1, \"regoin\": " + region + "}\n"        // 19
+                + "      ]")
+                .replace("{\"type\": \"halfSpace\", \"point\": [0, 0.45, 0], \"normal\": [0, -1, 0]}",
+                        "{\"type\": \"wedge\", \"edgeX\": 0.5, \"edgeY\": 0.5, \"halfAngle\": 2, \"depth\": 0}")
+                .replace("{\"type\": \"box\", \"min\": [0.4, 0.4, 0.4], \"max\": [0.6, 0.6, 0.6]}",
+                        "{\"type\": \"wedge\", \"edgeX\": 0.4, \"edgeY\": 0.5, \"halfAngle\": 0.3, \"depth\": 0.2}")
+                .replace("\"density\": 1000},", "\"density\": 1000, \"fibers\": [{\"type\": \"quadratic\", "
+                        + "\"stiffness\": 1e4}]},");
+        SceneFileException e = fails("regions.json", text);
+        List<String> paths = e.problems().stream().map(SceneProblem::path).toList();
+        assertEquals(List.of("bodies[0].shape.type", "bodies[0].initialValues[0].channel",
+                "bodies[0].initialValues[1].value", "bodies[0].initialValues[2].channel",
+                "bodies[0].initialValues[3]", "bodies[0].initialValues[3].regoin",
+                "grips[0].region.halfAngle", "grips[0].region.depth"), paths, e.getMessage());
+        List<SceneProblem> p = e.problems();
+        at(p.get(0), "bodies[0].shape.type", 11, "unbounded", "obstacles");
+        at(p.get(1), "bodies[0].initialValues[0].channel", 16, "no channel \"damgae\"", "did you mean \"damage\"",
+                "history");
+        at(p.get(2), "bodies[0].initialValues[1].value", 17, "1.5", "[0, 1]");
+        at(p.get(3), "bodies[0].initialValues[2].channel", 18, "\"fiber-1\" has 3 components", "fiberDirections");
+        at(p.get(4), "bodies[0].initialValues[3]", 19, "\"region\" is missing");
+        at(p.get(5), "bodies[0].initialValues[3].regoin", 19, "did you mean \"region\"");
+        at(p.get(6), "grips[0].region.halfAngle", 23, "(0, 1.5707963267948966) rad");
+        at(p.get(7), "grips[0].region.depth", 23, "> 0 m");
+    }
+
     @Test
     void missingSceneFileIsAFileError() {
         Path p = tmp.resolve("absent.json");

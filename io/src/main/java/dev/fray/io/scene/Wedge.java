@@ -1,4 +1,4 @@
-package dev.fray.examples.scenes;
+package dev.fray.io.scene;
 
 import dev.fray.core.boundary.Bounds;
 import dev.fray.core.boundary.Shape;
@@ -9,16 +9,18 @@ import dev.fray.core.error.Checks;
  * (apex) at (apexX, apexY), opening towards +x with the given half angle and cut off at the given depth behind the
  * edge. The signed distance is the largest of the distances to the three face planes, exact inside and on the
  * faces and a lower bound outside, which is what contact needs: the sign and the face normal near the surface.
- * Immutable. Lengths in m, angles in radians.
+ * Unbounded along z, so it serves obstacles, grip regions and initial-value regions, not bodies. Scene files
+ * describe it as the shape type {@code "wedge"} with the keys {@code edgeX}, {@code edgeY}, {@code halfAngle} and
+ * {@code depth}. Immutable. Lengths in m, angles in radians.
  *
  * @param apexX     x of the edge, m
  * @param apexY     y of the edge, m
  * @param halfAngle half opening angle, radians, in (0, pi/2)
  * @param depth     length from the edge to the back face along x, m, &gt; 0
  */
-record Wedge(double apexX, double apexY, double halfAngle, double depth) implements Shape {
+public record Wedge(double apexX, double apexY, double halfAngle, double depth) implements Shape {
     /** Checks the fields. */
-    Wedge {
+    public Wedge {
         Checks.finite("wedge edge x (m)", apexX);
         Checks.finite("wedge edge y (m)", apexY);
         Checks.inRange("wedge half angle (rad)", halfAngle, 0.0, true, Math.PI / 2, true);
