@@ -1,17 +1,22 @@
 package dev.fray.damage;
 
+import dev.fray.core.material.TensionSplit;
 import dev.fray.damage.fracture.AnisotropicPhaseField;
 import dev.fray.damage.fracture.PhaseFieldAT2;
 import dev.fray.damage.fracture.RankineDamage;
 
 /**
  * Static factories for the damage models that make bodies crack. Each returns a builder whose {@code build()}
- * validates the parameters and names the field, its unit and the allowed range when one is bad.
+ * validates the parameters and names the field, its unit and the allowed range when one is bad. Every builder also
+ * takes {@code tensionSplit}: the {@link TensionSplit} the model asks of the material law, whose degradable part
+ * damage takes away (default {@link TensionSplit#LAW_DEFAULT}, the law's own split); a body whose law does not
+ * offer the split is rejected when it is built.
  *
  * <pre>
  *   DamageModel brittle = Fracture.phaseField().fractureEnergy(10).lengthScale(0.01).build();
  *   DamageModel wood = Fracture.anisotropicPhaseField().fractureEnergy(50).fiberStrengths(20).build();
  *   DamageModel chalk = Fracture.rankine().criticalStress(2e5).fractureEnergy(5, 1e8).build();
+ *   DamageModel glass = Fracture.phaseField().fractureEnergy(4).tensionSplit(TensionSplit.SPECTRAL).build();
  * </pre>
  */
 public final class Fracture {

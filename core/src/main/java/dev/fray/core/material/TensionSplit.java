@@ -19,5 +19,10 @@ public enum TensionSplit {
      */
     SPECTRAL,
     /** No split: all of the stress and energy is degraded, compression included. */
-    NONE
+    NONE;
+
+    /** @return the name scene files and plugin parameters use: lower case with dashes, e.g. "spectral" */
+    public String key() {
+        return name().toLowerCase(java.util.Locale.ROOT).replace('_', '-');
+    }
 }

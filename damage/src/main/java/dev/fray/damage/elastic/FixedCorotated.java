@@ -3,6 +3,7 @@ package dev.fray.damage.elastic;
 import dev.fray.core.error.Checks;
 import dev.fray.core.material.MaterialLaw;
 import dev.fray.core.material.MaterialState;
+import dev.fray.core.material.TensionSplit;
 import dev.fray.core.math.Mat3;
 import dev.fray.core.math.Svd3;
 import dev.fray.core.math.Vec3;
@@ -24,6 +25,10 @@ import java.util.Arrays;
  * law needs no clamp: energy and stress are defined and finite for every finite F, and the volume term pushes an
  * inverted particle back. If the decomposition fails, which happens only for non-finite F, the outputs of that
  * particle are NaN so the solver's NaN guard reports it.
+ *
+ * <p>Damage: the law offers the volumetric-deviatoric split (its default) and a spectral split in the principal
+ * stretches; see {@link #splitKirchhoffStress(TensionSplit, MaterialState, int, int, double[], double[], double[],
+ * double[])}.
  *
  * <p>Immutable and thread-safe; no channels.
  */
@@ -198,6 +203,12 @@ public final class FixedCorotated implements MaterialLaw {
     @Override
     public void splitKirchhoffStress(MaterialState state, int from, int to, double[] tauDegraded, double[] tauKept,
                                      double[] psiDegraded, double[] psiKept) {
+        principalSplit(false, state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+    }
+
+    /** The volumetric-deviatoric or the spectral split, documented at the public split methods. */
+    private void principalSplit(boolean spectral, MaterialState state, int from, int to, double[] tauDegraded,
+                                double[] tauKept, double[] psiDegraded, double[] psiKept) {
         double[] f = state.deformation();
         Mat3 a = new Mat3();
         Mat3 u = new Mat3();
@@ -207,13 +218,27 @@ public final class FixedCorotated implements MaterialLaw {
             int o = 9 * (p - from);
             a.load(f, 9 * p);
             if (!Svd3.decompose(a, u, s, v)) {
-                Arrays.fill(tauDegraded, o, o + 9, Double.NaN);
-                Arrays.fill(tauKept, o, o + 9, Double.NaN);
-                psiDegraded[p - from] = Double.NaN;
-                psiKept[p - from] = Double.NaN;
+                SplitSupport.invalid(tauDegraded, tauKept, psiDegraded, psiKept, o, p - from);
                 continue;
             }
             double j = det(a);
+            if (spectral) {
+                double e0 = s.x - 1.0, e1 = s.y - 1.0, e2 = s.z - 1.0;
+                boolean t0 = e0 > 0.0, t1 = e1 > 0.0, t2 = e2 > 0.0;
+                double jm1 = j - 1.0;
+                boolean expanded = jm1 > 0.0;
+                double iso = lambda * jm1 * j;
+                double m2 = 2.0 * mu;
+                double k0 = m2 * e0 * s.x, k1 = m2 * e1 * s.y, k2 = m2 * e2 * s.z;
+                symmetricUDUt(u, t0 ? k0 : 0.0, t1 ? k1 : 0.0, t2 ? k2 : 0.0, expanded ? iso : 0.0, tauDegraded, o);
+                symmetricUDUt(u, t0 ? 0.0 : k0, t1 ? 0.0 : k1, t2 ? 0.0 : k2, expanded ? 0.0 : iso, tauKept, o);
+                double q0 = mu * e0 * e0, q1 = mu * e1 * e1, q2 = mu * e2 * e2;
+                double volume = 0.5 * lambda * jm1 * jm1;
+                psiDegraded[p - from] = (t0 ? q0 : 0.0) + (t1 ? q1 : 0.0) + (t2 ? q2 : 0.0)
+                        + (expanded ? volume : 0.0);
+                psiKept[p - from] = (t0 ? 0.0 : q0) + (t1 ? 0.0 : q1) + (t2 ? 0.0 : q2) + (expanded ? 0.0 : volume);
+                continue;
+            }
             double m = (s.x + s.y + s.z) / 3.0;
             double e0 = s.x - m, e1 = s.y - m, e2 = s.z - m;
             double m2 = 2.0 * mu;
@@ -241,6 +266,45 @@ public final class FixedCorotated implements MaterialLaw {
             psiDegraded[p - from] = psiDev + (meanDegraded ? psiMean : 0.0) + (volDegraded ? psiVol : 0.0);
             psiKept[p - from] = (meanDegraded ? 0.0 : psiMean) + (volDegraded ? 0.0 : psiVol);
         }
+    }
+
+    /**
+     * {@inheritDoc}
+     *
+     * <p>{@link TensionSplit#LAW_DEFAULT} and {@link TensionSplit#VOLUMETRIC_DEVIATORIC}: the split of Amor, Marigo
+     * and Maurini 2009 above. {@link TensionSplit#NONE}: everything degradable. {@link TensionSplit#SPECTRAL}: the
+     * spectral split of Miehe, Welschinger and Hofacker 2010 (Int. J. Numer. Meth. Engng 83) on the principal
+     * corotated (Biot) strains sigma_i - 1, the strain the shear term is quadratic in, with the volume term split
+     * by the sign of J - 1:
+     * <pre>
+     *   psi+ = mu sum &lt;sigma_i - 1&gt;+^2 + lambda/2 &lt;J - 1&gt;+^2
+     *   psi- = mu sum &lt;sigma_i - 1&gt;-^2 + lambda/2 &lt;J - 1&gt;-^2
+     *   tau+ = U diag(2 mu &lt;sigma_i - 1&gt;+ sigma_i) U^T + lambda &lt;J - 1&gt;+ J I
+     *   tau- = U diag(2 mu &lt;sigma_i - 1&gt;- sigma_i) U^T + lambda &lt;J - 1&gt;- J I
+     * </pre>
+     * (signed singular values sigma_i, F = U diag(sigma) V^T). sigma_i &gt; 1 is the same as a positive principal
+     * logarithmic strain and J &gt; 1 the same as a positive trace of it, so tension means what it means for the
+     * other laws. Each term vanishes with zero slope at its switch, so energy and stress are continuous; the
+     * parts are disjoint and add up to the law exactly. At small strain this is Miehe's linear split. An inverted
+     * direction (sigma_3 &lt; 0) is kept. psi+ &gt;= 0 for lambda &gt;= 0 (Poisson ratio &gt;= 0).
+     */
+    @Override
+    public void splitKirchhoffStress(TensionSplit split, MaterialState state, int from, int to,
+                                     double[] tauDegraded, double[] tauKept, double[] psiDegraded,
+                                     double[] psiKept) {
+        switch (split) {
+            case LAW_DEFAULT, VOLUMETRIC_DEVIATORIC ->
+                    principalSplit(false, state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+            case SPECTRAL -> principalSplit(true, state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+            default -> MaterialLaw.super.splitKirchhoffStress(split, state, from, to, tauDegraded, tauKept,
+                    psiDegraded, psiKept);
+        }
+    }
+
+    /** {@inheritDoc} All four: law default (volumetric-deviatoric), volumetric-deviatoric, spectral and none. */
+    @Override
+    public boolean supportsSplit(TensionSplit split) {
+        return SplitSupport.offersEvery(split);
     }
 
     /** Determinant from the entries; near rest this is more accurate than the product of singular values. */

@@ -3,6 +3,7 @@ package dev.fray.damage.elastic;
 import dev.fray.core.error.Checks;
 import dev.fray.core.material.MaterialLaw;
 import dev.fray.core.material.MaterialState;
+import dev.fray.core.material.TensionSplit;
 import dev.fray.core.math.Mat3;
 import dev.fray.core.math.Svd3;
 import dev.fray.core.math.Vec3;
@@ -26,6 +27,10 @@ import java.util.Arrays;
  * squeezing a direction through zero keeps costing energy, and the solver never sees NaN. Above the floor the
  * law is exact. If the decomposition fails, which happens only for non-finite F, the outputs of that particle
  * are NaN so the solver's NaN guard reports it.
+ *
+ * <p>Damage: the law offers the spectral split (its default) and the volumetric-deviatoric split, both on the
+ * Hencky strain; see {@link #splitKirchhoffStress(TensionSplit, MaterialState, int, int, double[], double[],
+ * double[], double[])}.
  *
  * <p>Immutable and thread-safe; no channels.
  */
@@ -179,7 +184,14 @@ public final class HenckyStVK implements MaterialLaw {
     @Override
     public void splitKirchhoffStress(MaterialState state, int from, int to, double[] tauDegraded, double[] tauKept,
                                      double[] psiDegraded, double[] psiKept) {
+        principalSplit(true, state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+    }
+
+    /** The spectral or the volumetric-deviatoric split, documented at the public split methods. */
+    private void principalSplit(boolean spectral, MaterialState state, int from, int to, double[] tauDegraded,
+                                double[] tauKept, double[] psiDegraded, double[] psiKept) {
         double[] f = state.deformation();
+        double bulk = lambda + 2.0 * mu / 3.0;
         Mat3 a = new Mat3();
         Mat3 u = new Mat3();
         Mat3 v = new Mat3();
@@ -188,18 +200,29 @@ public final class HenckyStVK implements MaterialLaw {
             int o = 9 * (p - from);
             a.load(f, 9 * p);
             if (!Svd3.decompose(a, u, s, v)) {
-                Arrays.fill(tauDegraded, o, o + 9, Double.NaN);
-                Arrays.fill(tauKept, o, o + 9, Double.NaN);
-                psiDegraded[p - from] = Double.NaN;
-                psiKept[p - from] = Double.NaN;
+                SplitSupport.invalid(tauDegraded, tauKept, psiDegraded, psiKept, o, p - from);
                 continue;
             }
             double g0 = logStretch(s.x), g1 = logStretch(s.y), g2 = logStretch(s.z);
             double tr = g0 + g1 + g2;
+            double sc0 = belowFloorScale(s.x), sc1 = belowFloorScale(s.y), sc2 = belowFloorScale(s.z);
+            if (!spectral) {
+                double mean = tr / 3.0;
+                double d0 = g0 - mean, d1 = g1 - mean, d2 = g2 - mean;
+                boolean expanded = tr > 0.0;
+                double vol = bulk * tr;
+                double volD = expanded ? vol : 0.0, volK = expanded ? 0.0 : vol;
+                FixedCorotated.symmetricUDUt(u, (2.0 * mu * d0 + volD) * sc0, (2.0 * mu * d1 + volD) * sc1,
+                        (2.0 * mu * d2 + volD) * sc2, 0.0, tauDegraded, o);
+                FixedCorotated.symmetricUDUt(u, volK * sc0, volK * sc1, volK * sc2, 0.0, tauKept, o);
+                double volume = 0.5 * bulk * tr * tr;
+                psiDegraded[p - from] = mu * (d0 * d0 + d1 * d1 + d2 * d2) + (expanded ? volume : 0.0);
+                psiKept[p - from] = expanded ? 0.0 : volume;
+                continue;
+            }
             double trP = Math.max(tr, 0.0), trN = Math.min(tr, 0.0);
             double p0 = Math.max(g0, 0.0), p1 = Math.max(g1, 0.0), p2 = Math.max(g2, 0.0);
             double n0 = Math.min(g0, 0.0), n1 = Math.min(g1, 0.0), n2 = Math.min(g2, 0.0);
-            double sc0 = belowFloorScale(s.x), sc1 = belowFloorScale(s.y), sc2 = belowFloorScale(s.z);
             double lp = lambda * trP, ln = lambda * trN;
             FixedCorotated.symmetricUDUt(u, (2.0 * mu * p0 + lp) * sc0, (2.0 * mu * p1 + lp) * sc1,
                     (2.0 * mu * p2 + lp) * sc2, 0.0, tauDegraded, o);
@@ -208,6 +231,44 @@ public final class HenckyStVK implements MaterialLaw {
             psiDegraded[p - from] = mu * (p0 * p0 + p1 * p1 + p2 * p2) + 0.5 * lambda * trP * trP;
             psiKept[p - from] = mu * (n0 * n0 + n1 * n1 + n2 * n2) + 0.5 * lambda * trN * trN;
         }
+    }
+
+    /**
+     * {@inheritDoc}
+     *
+     * <p>{@link TensionSplit#LAW_DEFAULT} and {@link TensionSplit#SPECTRAL}: the spectral split of Miehe et al. 2010
+     * above. {@link TensionSplit#NONE}: everything degradable. {@link TensionSplit#VOLUMETRIC_DEVIATORIC}: the split
+     * of Amor, Marigo and Maurini 2009 (J. Mech. Phys. Solids 57) on the Hencky strain. The energy is Hooke's law in
+     * g, so it separates exactly into a deviatoric and a volumetric part with the bulk modulus K = lambda + 2 mu / 3:
+     * <pre>
+     *   psi+ = mu |dev g|^2 + K/2 &lt;tr g&gt;+^2,      dev g = g - (tr g / 3) I
+     *   psi- = K/2 &lt;tr g&gt;-^2
+     *   tau+ = U diag((2 mu dev g_i + K &lt;tr g&gt;+) s_i g'(s_i)) U^T
+     *   tau- = U diag(K &lt;tr g&gt;- s_i g'(s_i)) U^T
+     * </pre>
+     * (g continued below {@link #STRETCH_FLOOR}; s_i g'(s_i) = 1 above it). The sums are mu sum g_i^2 +
+     * lambda/2 (tr g)^2 and 2 mu g_i + lambda tr g, the law itself. tr g = ln J, so volume expansion is
+     * degraded and volume compression kept; both parts are &gt;= 0 for every admissible Poisson ratio (K &gt; 0).
+     * At small strain this is Amor's split, K/2 &lt;tr eps&gt;+^2 + mu |dev eps|^2.
+     */
+    @Override
+    public void splitKirchhoffStress(TensionSplit split, MaterialState state, int from, int to,
+                                     double[] tauDegraded, double[] tauKept, double[] psiDegraded,
+                                     double[] psiKept) {
+        switch (split) {
+            case LAW_DEFAULT, SPECTRAL -> principalSplit(true, state, from, to, tauDegraded, tauKept, psiDegraded,
+                    psiKept);
+            case VOLUMETRIC_DEVIATORIC -> principalSplit(false, state, from, to, tauDegraded, tauKept, psiDegraded,
+                    psiKept);
+            default -> MaterialLaw.super.splitKirchhoffStress(split, state, from, to, tauDegraded, tauKept,
+                    psiDegraded, psiKept);
+        }
+    }
+
+    /** {@inheritDoc} All four: law default (spectral), volumetric-deviatoric, spectral and none. */
+    @Override
+    public boolean supportsSplit(TensionSplit split) {
+        return SplitSupport.offersEvery(split);
     }
 
     /** ln s above the floor, its tangent line below. */

@@ -3,6 +3,10 @@ package dev.fray.damage.elastic;
 import dev.fray.core.error.Checks;
 import dev.fray.core.material.MaterialLaw;
 import dev.fray.core.material.MaterialState;
+import dev.fray.core.material.TensionSplit;
+import dev.fray.core.math.Mat3;
+import dev.fray.core.math.Svd3;
+import dev.fray.core.math.Vec3;
 
 import java.util.Arrays;
 
@@ -22,6 +26,10 @@ import java.util.Arrays;
  * differentiable, P = dpsi/dF holds everywhere, compression keeps costing energy through J = 0 and beyond, so
  * an inverted particle is pushed back, and the solver never sees NaN. Above the floor the law is exact.
  * F^-T is formed as cof(F) / J, and the cofactor is finite for any finite F.
+ *
+ * <p>Damage: the law offers the volumetric-deviatoric split (its default) and a spectral split in the principal
+ * stretches; see {@link #splitKirchhoffStress(TensionSplit, MaterialState, int, int, double[], double[], double[],
+ * double[])}.
  *
  * <p>Immutable and thread-safe; no channels.
  */
@@ -237,6 +245,104 @@ public final class NeoHookean implements MaterialLaw {
                 psiKept[p - from] = 1.5 * mu * (j23 - 1.0) - mu * l + 0.5 * lambda * l * l;
             }
         }
+    }
+
+    /**
+     * {@inheritDoc}
+     *
+     * <p>{@link TensionSplit#LAW_DEFAULT} and {@link TensionSplit#VOLUMETRIC_DEVIATORIC}: the split of Amor, Marigo
+     * and Maurini 2009 above. {@link TensionSplit#NONE}: everything degradable. {@link TensionSplit#SPECTRAL}: the
+     * spectral split of Miehe, Welschinger and Hofacker 2010 (Int. J. Numer. Meth. Engng 83) carried over to the
+     * principal stretches s_i of F (principal logarithmic strains g_i = ln s_i). The law is a sum of one term per
+     * principal stretch and one of the volume ratio,
+     * <pre>
+     *   psi = sum_i phi(s_i) + lambda/2 (ln J)^2,   phi(s) = mu/2 (s^2 - 1) - mu ln s = mu/2 (e^(2g) - 1 - 2g),
+     * </pre>
+     * and phi(1) = phi'(1) = 0, so a term can be switched on and off at s = 1 without a jump in energy or stress.
+     * A stretched direction (g_i &gt; 0) and a volume increase (tr g = ln J &gt; 0) are tension:
+     * <pre>
+     *   psi+ = sum_{s_i &gt; 1} phi(s_i) + lambda/2 &lt;ln J&gt;+^2
+     *   psi- = sum_{s_i &lt;= 1} phi(s_i) + lambda/2 &lt;ln J&gt;-^2
+     *   tau+ = U diag(mu (s_i^2 - 1) [s_i &gt; 1]) U^T + lambda &lt;ln J&gt;+ I
+     *   tau- = U diag(mu (s_i^2 - 1) [s_i &lt;= 1]) U^T + lambda &lt;ln J&gt;- I
+     * </pre>
+     * with F = U diag(s) V^T and tau = U diag(s_i dpsi/ds_i) U^T. At small strain phi(s) = mu g^2 + O(g^3), so this
+     * is Miehe's linear split, mu sum &lt;eps_i&gt;+^2 + lambda/2 &lt;tr eps&gt;+^2. The degradable energy is
+     * &gt;= 0 for every admissible Poisson ratio: phi(s) &gt;= mu (ln s)^2 for s &gt;= 1, and
+     * mu sum &lt;g_i&gt;+^2 + lambda/2 (tr g)^2 &gt;= 0 for tr g &gt; 0 when lambda &gt; -2 mu / 3. Uniaxial
+     * compression (one s_i &lt; 1, the others 1) and any volume decrease with no stretched direction are all kept,
+     * unlike the volumetric-deviatoric split, which degrades their deviatoric part. Splits of this energy in the
+     * principal stretches are also used by Hesch and Weinberg 2014 (Int. J. Numer. Meth. Engng 99). Below
+     * {@link #J_FLOOR}, or for an inverted F, the volume term (continued as in the energy) and the compressed
+     * directions are kept: psi- = psi - psi+ and tau- = tau - tau+ in closed form.
+     */
+    @Override
+    public void splitKirchhoffStress(TensionSplit split, MaterialState state, int from, int to,
+                                     double[] tauDegraded, double[] tauKept, double[] psiDegraded,
+                                     double[] psiKept) {
+        switch (split) {
+            case LAW_DEFAULT, VOLUMETRIC_DEVIATORIC ->
+                    splitKirchhoffStress(state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+            case SPECTRAL -> spectralSplit(state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+            default -> MaterialLaw.super.splitKirchhoffStress(split, state, from, to, tauDegraded, tauKept,
+                    psiDegraded, psiKept);
+        }
+    }
+
+    /** {@inheritDoc} All four: law default (volumetric-deviatoric), volumetric-deviatoric, spectral and none. */
+    @Override
+    public boolean supportsSplit(TensionSplit split) {
+        return SplitSupport.offersEvery(split);
+    }
+
+    /** The spectral split, documented at the public split method. */
+    private void spectralSplit(MaterialState state, int from, int to, double[] tauDegraded, double[] tauKept,
+                               double[] psiDegraded, double[] psiKept) {
+        double[] f = state.deformation();
+        Mat3 a = new Mat3();
+        Mat3 u = new Mat3();
+        Mat3 v = new Mat3();
+        Vec3 s = new Vec3();
+        for (int p = from; p < to; p++) {
+            int o = 9 * (p - from);
+            a.load(f, 9 * p);
+            if (!Svd3.decompose(a, u, s, v)) {
+                SplitSupport.invalid(tauDegraded, tauKept, psiDegraded, psiKept, o, p - from);
+                continue;
+            }
+            double j = a.m00 * (a.m11 * a.m22 - a.m12 * a.m21) + a.m01 * (a.m12 * a.m20 - a.m10 * a.m22)
+                    + a.m02 * (a.m10 * a.m21 - a.m11 * a.m20);
+            double l = logJ(j);
+            // same expression as kirchhoffStress, so the two parts add up to its tau
+            double iso = j >= J_FLOOR ? lambda * Math.log(j) : (lambda * l - mu) * (j / J_FLOOR) + mu;
+            boolean t0 = s.x > 1.0, t1 = s.y > 1.0, t2 = s.z > 1.0;
+            double m0 = mu * (s.x - 1.0) * (s.x + 1.0);
+            double m1 = mu * (s.y - 1.0) * (s.y + 1.0);
+            double m2 = mu * (s.z - 1.0) * (s.z + 1.0);
+            boolean expanded = j > 1.0;
+            FixedCorotated.symmetricUDUt(u, t0 ? m0 : 0.0, t1 ? m1 : 0.0, t2 ? m2 : 0.0, expanded ? iso : 0.0,
+                    tauDegraded, o);
+            FixedCorotated.symmetricUDUt(u, t0 ? 0.0 : m0, t1 ? 0.0 : m1, t2 ? 0.0 : m2, expanded ? 0.0 : iso,
+                    tauKept, o);
+            double volume = 0.5 * lambda * l * l;
+            double e0 = stretchEnergy(s.x), e1 = stretchEnergy(s.y), e2 = stretchEnergy(s.z);
+            psiDegraded[p - from] = (t0 ? e0 : 0.0) + (t1 ? e1 : 0.0) + (t2 ? e2 : 0.0) + (expanded ? volume : 0.0);
+            if (j >= J_FLOOR && s.z > 0.0) {
+                psiKept[p - from] = (t0 ? 0.0 : e0) + (t1 ? 0.0 : e1) + (t2 ? 0.0 : e2) + (expanded ? 0.0 : volume);
+            } else {
+                // continued law: -mu l(J) no longer splits into per-direction logarithms; the stretched
+                // directions' logarithms go to the degradable side and the rest of -mu l(J) stays here
+                double stretchedLog = (t0 ? Math.log(s.x) : 0.0) + (t1 ? Math.log(s.y) : 0.0)
+                        + (t2 ? Math.log(s.z) : 0.0);
+                psiKept[p - from] = 0.5 * (t0 ? 0.0 : m0) + 0.5 * (t1 ? 0.0 : m1) + 0.5 * (t2 ? 0.0 : m2)
+                        - mu * (l - stretchedLog) + volume;
+            }
+        }
+    }
+
+    /** phi(s) = mu/2 (s^2 - 1) - mu ln s for s &gt; 0, which is &gt;= 0; the clamp removes rounding near s = 1. */
+    private double stretchEnergy(double s) {
+        return s > 0.0 ? Math.max(0.0, 0.5 * mu * (s - 1.0) * (s + 1.0) - mu * Math.log(s)) : 0.0;
     }
 
     /** ln J above the floor, its tangent line below; NaN stays NaN. */

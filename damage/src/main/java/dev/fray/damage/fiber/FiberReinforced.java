@@ -5,6 +5,7 @@ import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.material.MaterialLaw;
 import dev.fray.core.material.MaterialState;
+import dev.fray.core.material.TensionSplit;
 import dev.fray.core.particles.ChannelSpec;
 
 import java.util.ArrayList;
@@ -24,8 +25,9 @@ import java.util.List;
  * non-zero one need not be exactly unit, since I4 is formed as |F a0|<sup>2</sup> / |a0|<sup>2</sup>.
  * Stresses in Pa, energies in J/m^3.
  *
- * <p>Damage: {@link #splitKirchhoffStress} is the base law's split plus the whole fiber stress and energy as
- * degradable, since a broken fiber carries nothing, and a fiber stress is never compressive anyway.
+ * <p>Damage: {@link #splitKirchhoffStress} is the base law's split, in whichever {@link TensionSplit} the damage
+ * model asks for, plus the whole fiber stress and energy as degradable, since a broken fiber carries nothing, and a
+ * fiber stress is never compressive anyway. The law offers exactly the splits its base law offers.
  *
  * <p>Current directions: {@link #projectsDeformation()} is true, and {@link #projectDeformation} writes
  * F a0 / |F a0| into {@link FiberChannels#current} for anisotropic damage models and output. It does not change F
@@ -390,6 +392,27 @@ public final class FiberReinforced implements MaterialLaw {
                                      double[] psiDegraded, double[] psiKept) {
         base.splitKirchhoffStress(state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
         addFiberKirchhoff(state, from, to, tauDegraded, psiDegraded);
+    }
+
+    /**
+     * {@inheritDoc}
+     *
+     * <p>The base law's split of the requested kind, plus every family's stress and energy on the degradable side.
+     *
+     * @throws UnsupportedOperationException if the base law does not offer the split
+     */
+    @Override
+    public void splitKirchhoffStress(TensionSplit split, MaterialState state, int from, int to,
+                                     double[] tauDegraded, double[] tauKept, double[] psiDegraded,
+                                     double[] psiKept) {
+        base.splitKirchhoffStress(split, state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+        addFiberKirchhoff(state, from, to, tauDegraded, psiDegraded);
+    }
+
+    /** {@inheritDoc} Whatever the base law offers. */
+    @Override
+    public boolean supportsSplit(TensionSplit split) {
+        return base.supportsSplit(split);
     }
 
     /** Adds each family's tau to tau[9(p - from)] and, when psi is not null, its energy to psi[p - from]. */

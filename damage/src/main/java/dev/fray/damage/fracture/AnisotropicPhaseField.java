@@ -5,6 +5,7 @@ import dev.fray.core.error.Checks;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.material.MaterialState;
+import dev.fray.core.material.TensionSplit;
 import dev.fray.core.particles.ChannelSpec;
 import dev.fray.damage.fiber.FiberChannels;
 
@@ -45,7 +46,9 @@ import java.util.List;
  *   and homogeneous damage is d = zeta D/(1 + zeta D), zero until the failure surface is reached.</li>
  * </ul>
  *
- * <p>Degradation g = (1 - d)^2 (1 - k) + k. Channels: {@value DamageModel#DAMAGE}, {@value PhaseFieldAT2#HISTORY}
+ * <p>Degradation g = (1 - d)^2 (1 - k) + k, applied to the degradable part of the {@link TensionSplit} the model
+ * asks of the material law ({@link Builder#tensionSplit}, by default the law's own split); with the energy
+ * driving force the split's psi_degraded also drives the crack. Channels: {@value DamageModel#DAMAGE}, {@value PhaseFieldAT2#HISTORY}
  * (J/m^3) and the read-only fiber-k reference directions. Immutable and thread-safe; build with
  * {@link dev.fray.damage.Fracture#anisotropicPhaseField()}.
  */
@@ -66,11 +69,12 @@ public final class AnisotropicPhaseField implements DamageModel {
     private final double sigmaAlong;
     private final double sigmaAcross;
     private final double slope;
+    private final TensionSplit split;
     private final List<ChannelSpec> channels;
 
     private AnisotropicPhaseField(double fractureEnergy, double lengthScale, double viscosity, double residual,
                                   double[] strengths, boolean stressDriven, double sigmaAlong, double sigmaAcross,
-                                  double slope) {
+                                  double slope, TensionSplit split) {
         PhaseFieldSupport.check(fractureEnergy, lengthScale, viscosity, residual);
         this.fractureEnergy = fractureEnergy;
         this.lengthScale = lengthScale;
@@ -81,6 +85,7 @@ public final class AnisotropicPhaseField implements DamageModel {
         this.sigmaAlong = sigmaAlong;
         this.sigmaAcross = sigmaAcross;
         this.slope = slope;
+        this.split = Checks.notNull("tensionSplit", split);
         List<ChannelSpec> c = new ArrayList<>();
         c.add(PhaseFieldSupport.DAMAGE_SPEC);
         c.add(HISTORY_SPEC);
@@ -90,7 +95,10 @@ public final class AnisotropicPhaseField implements DamageModel {
         this.channels = Collections.unmodifiableList(c);
     }
 
-    /** @return a builder with the defaults: no length scale (two cells), no viscosity, k = 1e-6, energy driving */
+    /**
+     * @return a builder with the defaults: no length scale (two cells), no viscosity, k = 1e-6, energy driving,
+     *         the law's own split
+     */
     public static Builder builder() {
         return new Builder();
     }
@@ -155,6 +163,12 @@ public final class AnisotropicPhaseField implements DamageModel {
         return NAME;
     }
 
+    /** {@inheritDoc} As given to {@link Builder#tensionSplit}. */
+    @Override
+    public TensionSplit tensionSplit() {
+        return split;
+    }
+
     /**
      * {@inheritDoc} Fills a missing length scale with {@link PhaseFieldAT2#DEFAULT_LENGTH_CELLS} cells. The check
      * is on l, the shortest length (across the fibers); along them it is longer.
@@ -165,7 +179,7 @@ public final class AnisotropicPhaseField implements DamageModel {
     public DamageModel resolvedFor(double cellSize) {
         double l = PhaseFieldSupport.resolveLength(lengthScale, cellSize);
         return l == lengthScale ? this : new AnisotropicPhaseField(fractureEnergy, l, viscosity, residual, strengths,
-                stressDriven, sigmaAlong, sigmaAcross, slope);
+                stressDriven, sigmaAlong, sigmaAcross, slope, split);
     }
 
     /** {@inheritDoc} Here damage, history and fiber-1 .. fiber-n. */
@@ -322,7 +336,7 @@ public final class AnisotropicPhaseField implements DamageModel {
         return NAME + "[Gc=" + fractureEnergy + " J/m^2, l=" + lengthScale + " m, eta=" + viscosity + " Pa s, k="
                 + residual + ", alpha=" + Arrays.toString(strengths)
                 + (stressDriven ? ", stress driving: along " + sigmaAlong + " Pa, across " + sigmaAcross
-                + " Pa, zeta " + slope : ", energy driving") + "]";
+                + " Pa, zeta " + slope : ", energy driving") + ", split=" + split + "]";
     }
 
     /** Fluent builder; {@link #build()} validates and names the field and its allowed range. */
@@ -336,8 +350,19 @@ public final class AnisotropicPhaseField implements DamageModel {
         private double sigmaAlong = Double.NaN;
         private double sigmaAcross = Double.NaN;
         private double slope = DEFAULT_STRESS_DRIVING_SLOPE;
+        private TensionSplit split = TensionSplit.LAW_DEFAULT;
 
         private Builder() {
+        }
+
+        /**
+         * @param split tension-compression split asked of the material law (which the body checks it offers);
+         *              default {@link TensionSplit#LAW_DEFAULT}
+         * @return this
+         */
+        public Builder tensionSplit(TensionSplit split) {
+            this.split = split;
+            return this;
         }
 
         /**
@@ -414,8 +439,8 @@ public final class AnisotropicPhaseField implements DamageModel {
 
         /**
          * @return the model
-         * @throws InvalidInputException with key MISSING if the fracture energy or the fiber strengths were not
-         *                               given, OUT_OF_RANGE or NOT_FINITE for a bad value
+         * @throws InvalidInputException with key MISSING if the fracture energy, the fiber strengths or the split
+         *                               were not given, OUT_OF_RANGE or NOT_FINITE for a bad value
          */
         public DamageModel build() {
             if (Double.isNaN(fractureEnergy)) {
@@ -435,7 +460,7 @@ public final class AnisotropicPhaseField implements DamageModel {
                 Checks.positive("stressDrivingSlope", slope);
             }
             return new AnisotropicPhaseField(fractureEnergy, lengthScale, viscosity, residual, strengths,
-                    stressDriven, sigmaAlong, sigmaAcross, slope);
+                    stressDriven, sigmaAlong, sigmaAcross, slope, split);
         }
     }
 }

@@ -1,9 +1,11 @@
 package dev.fray.damage.fracture;
 
 import dev.fray.core.damage.DamageModel;
+import dev.fray.core.error.Checks;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.material.MaterialState;
+import dev.fray.core.material.TensionSplit;
 import dev.fray.core.particles.ChannelSpec;
 
 import java.util.List;
@@ -24,7 +26,9 @@ import java.util.List;
  * </pre>
  * psi_degraded is the degradable (tensile) energy density of the material law's split, J/m^3 of reference volume,
  * so compression never cracks a law that splits. The solved field is clamped to [0, 1] and never decreases.
- * For homogeneous states and eta = 0 this gives d = H / (H + Gc/(2l)).
+ * For homogeneous states and eta = 0 this gives d = H / (H + Gc/(2l)). Which part of the stress and energy is
+ * degradable is the {@link TensionSplit} the model asks of the material law ({@link Builder#tensionSplit}, by
+ * default the law's own split).
  *
  * <p>Channels: {@value DamageModel#DAMAGE} (d, dimensionless) and {@value #HISTORY} (H, J/m^3).
  * Immutable and thread-safe; build with {@link dev.fray.damage.Fracture#phaseField()}.
@@ -47,16 +51,22 @@ public final class PhaseFieldAT2 implements DamageModel {
     private final double lengthScale;
     private final double viscosity;
     private final double residual;
+    private final TensionSplit split;
 
-    private PhaseFieldAT2(double fractureEnergy, double lengthScale, double viscosity, double residual) {
+    private PhaseFieldAT2(double fractureEnergy, double lengthScale, double viscosity, double residual,
+                          TensionSplit split) {
         PhaseFieldSupport.check(fractureEnergy, lengthScale, viscosity, residual);
         this.fractureEnergy = fractureEnergy;
         this.lengthScale = lengthScale;
         this.viscosity = viscosity;
         this.residual = residual;
+        this.split = Checks.notNull("tensionSplit", split);
     }
 
-    /** @return a builder with the defaults: no length scale (two cells), no viscosity, k = 1e-6 */
+    /**
+     * @return a builder with the defaults: no length scale (two cells), no viscosity, k = 1e-6, the law's own
+     *         split
+     */
     public static Builder builder() {
         return new Builder();
     }
@@ -87,6 +97,12 @@ public final class PhaseFieldAT2 implements DamageModel {
         return NAME;
     }
 
+    /** {@inheritDoc} As given to {@link Builder#tensionSplit}; the psi_degraded of the split drives the crack. */
+    @Override
+    public TensionSplit tensionSplit() {
+        return split;
+    }
+
     /**
      * {@inheritDoc} Fills a missing length scale with {@link #DEFAULT_LENGTH_CELLS} cells.
      *
@@ -96,7 +112,7 @@ public final class PhaseFieldAT2 implements DamageModel {
     @Override
     public DamageModel resolvedFor(double cellSize) {
         double l = PhaseFieldSupport.resolveLength(lengthScale, cellSize);
-        return l == lengthScale ? this : new PhaseFieldAT2(fractureEnergy, l, viscosity, residual);
+        return l == lengthScale ? this : new PhaseFieldAT2(fractureEnergy, l, viscosity, residual, split);
     }
 
     /** {@inheritDoc} Here {@value DamageModel#DAMAGE} and {@value #HISTORY}. */
@@ -166,7 +182,7 @@ public final class PhaseFieldAT2 implements DamageModel {
     @Override
     public String toString() {
         return NAME + "[Gc=" + fractureEnergy + " J/m^2, l=" + lengthScale + " m, eta=" + viscosity + " Pa s, k="
-                + residual + "]";
+                + residual + ", split=" + split + "]";
     }
 
     /** Fluent builder; {@link #build()} validates and names the field and its allowed range. */
@@ -175,8 +191,19 @@ public final class PhaseFieldAT2 implements DamageModel {
         private double lengthScale = Double.NaN;
         private double viscosity = 0.0;
         private double residual = DEFAULT_RESIDUAL_STIFFNESS;
+        private TensionSplit split = TensionSplit.LAW_DEFAULT;
 
         private Builder() {
+        }
+
+        /**
+         * @param split tension-compression split asked of the material law (which the body checks it offers);
+         *              default {@link TensionSplit#LAW_DEFAULT}
+         * @return this
+         */
+        public Builder tensionSplit(TensionSplit split) {
+            this.split = split;
+            return this;
         }
 
         /**
@@ -217,14 +244,14 @@ public final class PhaseFieldAT2 implements DamageModel {
 
         /**
          * @return the model
-         * @throws InvalidInputException with key MISSING if the fracture energy was not given, OUT_OF_RANGE or
-         *                               NOT_FINITE for a bad value
+         * @throws InvalidInputException with key MISSING if the fracture energy or the split was not given,
+         *                               OUT_OF_RANGE or NOT_FINITE for a bad value
          */
         public DamageModel build() {
             if (Double.isNaN(fractureEnergy)) {
                 throw new InvalidInputException(FrayMessage.MISSING, PhaseFieldSupport.FRACTURE_ENERGY);
             }
-            return new PhaseFieldAT2(fractureEnergy, lengthScale, viscosity, residual);
+            return new PhaseFieldAT2(fractureEnergy, lengthScale, viscosity, residual, split);
         }
     }
 }

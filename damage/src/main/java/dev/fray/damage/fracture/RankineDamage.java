@@ -5,6 +5,7 @@ import dev.fray.core.error.Checks;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.material.MaterialState;
+import dev.fray.core.material.TensionSplit;
 import dev.fray.core.particles.ChannelSpec;
 
 import java.util.List;
@@ -43,6 +44,10 @@ import java.util.List;
  * d_new = d* + (d - d*) exp(-dt/tau_d), which is stable for any step and never overshoots. Damage never decreases
  * because kappa never does.
  *
+ * <p>What g degrades: the solver applies g to the degradable part of the {@link TensionSplit} the model asks of
+ * the material law ({@link Builder#tensionSplit}, by default the law's own split) and keeps the rest, so a broken
+ * particle still resists compression. The onset criterion uses the whole undamaged stress whatever the split.
+ *
  * <p>Channels: {@value DamageModel#DAMAGE} and {@value #HISTORY}. Immutable and thread-safe; build with
  * {@link dev.fray.damage.Fracture#rankine()}.
  */
@@ -75,10 +80,11 @@ public final class RankineDamage implements DamageModel {
     private final double viscosity;
     private final Degradation degradation;
     private final double residual;
+    private final TensionSplit split;
 
     private RankineDamage(double criticalStress, double softeningStress, double fractureEnergy,
                           double youngsModulus, double bandWidth, double viscosity, Degradation degradation,
-                          double residual) {
+                          double residual, TensionSplit split) {
         this.criticalStress = criticalStress;
         this.softeningStress = softeningStress;
         this.fractureEnergy = fractureEnergy;
@@ -87,6 +93,7 @@ public final class RankineDamage implements DamageModel {
         this.viscosity = viscosity;
         this.degradation = degradation;
         this.residual = residual;
+        this.split = split;
     }
 
     /** @return a builder; the critical stress and one softening parameter are required */
@@ -110,6 +117,11 @@ public final class RankineDamage implements DamageModel {
     /** @return fracture energy Gf, J/m^2, or NaN if the softening stress was given directly */
     public double fractureEnergy() {
         return fractureEnergy;
+    }
+
+    /** @return Young's modulus E that goes with the fracture energy, Pa, or NaN if the softening stress was given */
+    public double youngsModulus() {
+        return youngsModulus;
     }
 
     /** @return crack band width h, m, or NaN (one cell, or not used) */
@@ -150,6 +162,12 @@ public final class RankineDamage implements DamageModel {
         return NAME;
     }
 
+    /** {@inheritDoc} As given to {@link Builder#tensionSplit}. */
+    @Override
+    public TensionSplit tensionSplit() {
+        return split;
+    }
+
     /**
      * {@inheritDoc} Derives the softening stress from the fracture energy over a band of one cell when no band
      * width was given.
@@ -165,7 +183,7 @@ public final class RankineDamage implements DamageModel {
         Checks.positive("cellSize (m)", cellSize);
         double h = Double.isNaN(bandWidth) ? cellSize : bandWidth;
         return new RankineDamage(criticalStress, softening(criticalStress, fractureEnergy, youngsModulus, h),
-                fractureEnergy, youngsModulus, bandWidth, viscosity, degradation, residual);
+                fractureEnergy, youngsModulus, bandWidth, viscosity, degradation, residual, split);
     }
 
     /** s = E Gf/(h sigma_c) - sigma_c/2, which must be positive. */
@@ -269,7 +287,7 @@ public final class RankineDamage implements DamageModel {
     @Override
     public String toString() {
         return NAME + "[sigma_c=" + criticalStress + " Pa, s=" + softeningStress + " Pa, Gf=" + fractureEnergy
-                + " J/m^2, h=" + bandWidth + " m, tau=" + viscosity + " s, " + degradation + ", k=" + residual + "]";
+                + " J/m^2, h=" + bandWidth + " m, tau=" + viscosity + " s, " + degradation + ", k=" + residual + ", split=" + split + "]";
     }
 
     /** Fluent builder; {@link #build()} validates and names the field and its allowed range. */
@@ -282,8 +300,19 @@ public final class RankineDamage implements DamageModel {
         private double viscosity = 0.0;
         private Degradation degradation = Degradation.LINEAR;
         private double residual = DEFAULT_RESIDUAL_STIFFNESS;
+        private TensionSplit split = TensionSplit.LAW_DEFAULT;
 
         private Builder() {
+        }
+
+        /**
+         * @param split tension-compression split asked of the material law (which the body checks it offers):
+         *              its degradable part is what damage takes away; default {@link TensionSplit#LAW_DEFAULT}
+         * @return this
+         */
+        public Builder tensionSplit(TensionSplit split) {
+            this.split = split;
+            return this;
         }
 
         /**
@@ -360,9 +389,10 @@ public final class RankineDamage implements DamageModel {
 
         /**
          * @return the model
-         * @throws InvalidInputException with key MISSING for a missing critical stress or softening, INCONSISTENT
-         *                               if both softening parameters are given, OUT_OF_RANGE or NOT_FINITE for a
-         *                               bad value (including a fracture energy too small for the band width)
+         * @throws InvalidInputException with key MISSING for a missing critical stress, softening or split,
+         *                               INCONSISTENT if both softening parameters are given, OUT_OF_RANGE or
+         *                               NOT_FINITE for a bad value (including a fracture energy too small for the
+         *                               band width)
          */
         public DamageModel build() {
             if (Double.isNaN(criticalStress)) {
@@ -370,6 +400,7 @@ public final class RankineDamage implements DamageModel {
             }
             Checks.positive("criticalStress (Pa)", criticalStress);
             Checks.notNull("degradation", degradation);
+            Checks.notNull("tensionSplit", split);
             Checks.nonNegative("viscosity (s)", viscosity);
             Checks.inRange("residualStiffness", residual, 0.0, false, PhaseFieldAT2.MAX_RESIDUAL_STIFFNESS, false);
             boolean direct = !Double.isNaN(softeningStress);
@@ -389,7 +420,7 @@ public final class RankineDamage implements DamageModel {
                             "is used only with fractureEnergy; softeningStress already fixes the softening");
                 }
                 return new RankineDamage(criticalStress, softeningStress, Double.NaN, Double.NaN, Double.NaN,
-                        viscosity, degradation, residual);
+                        viscosity, degradation, residual, split);
             }
             Checks.positive("fractureEnergy (J/m^2)", fractureEnergy);
             Checks.positive("youngsModulus (Pa)", youngsModulus);
@@ -399,7 +430,7 @@ public final class RankineDamage implements DamageModel {
                 s = softening(criticalStress, fractureEnergy, youngsModulus, bandWidth);
             }
             return new RankineDamage(criticalStress, s, fractureEnergy, youngsModulus, bandWidth, viscosity,
-                    degradation, residual);
+                    degradation, residual, split);
         }
     }
 }

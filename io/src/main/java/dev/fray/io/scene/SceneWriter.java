@@ -52,7 +52,7 @@ import java.util.function.UnaryOperator;
  * {@link #write} rewrite relative names for the folder the text goes to.
  *
  * <p>What cannot be written, and is reported as {@link InvalidInputException} naming the body: a law or model
- * with no description (or a Rankine model given a fracture energy, whose Young's modulus it does not expose), a body
+ * with no description, a body
  * with an initial velocity field (a Java function), and initial channels other than described fiber directions and
  * {@link RegionField}s of scalar channels. Stateless and thread-safe.
  */
@@ -313,18 +313,13 @@ public final class SceneWriter {
         putParameters(m, d);
         if (model instanceof DamageModel dm && dm.tensionSplit() != TensionSplit.LAW_DEFAULT
                 && !m.containsKey(SPLIT)) {
-            m.put(SPLIT, splitName(dm.tensionSplit()));
+            m.put(SPLIT, dm.tensionSplit().key());
         }
         return m;
     }
 
     /** Parameter name of a damage model's tension-compression split. */
     static final String SPLIT = "split";
-
-    /** @return a split as a scene file names it: the enum name in lower case with dashes, e.g. "spectral" */
-    static String splitName(TensionSplit split) {
-        return split.name().toLowerCase(Locale.ROOT).replace('_', '-');
-    }
 
     /**
      * The registry parameters of a damage model made by the {@code Fracture} builders, read from its accessors;
@@ -351,13 +346,13 @@ public final class SceneWriter {
             return new ModelDescription(AnisotropicPhaseField.NAME, p);
         }
         if (model instanceof RankineDamage r) {
-            if (!Double.isNaN(r.fractureEnergy())) {
-                throw cannot(who, "its damage model \"rankine\" was given a fracture energy, and the model does not "
-                        + "expose the Young's modulus that goes with it; make it with SceneDescription.damageModel("
-                        + "\"rankine\", parameters) or attach a description with describe(...)");
-            }
             p.put("criticalStress", r.criticalStress());
-            p.put("softeningStress", r.softeningStress());
+            if (Double.isNaN(r.fractureEnergy())) {
+                p.put("softeningStress", r.softeningStress());
+            } else {
+                p.put("fractureEnergy", r.fractureEnergy());
+                p.put("youngsModulus", r.youngsModulus());
+            }
             putUnlessDefault(p, "bandWidth", r.bandWidth(), Double.NaN);
             putUnlessDefault(p, "viscosity", r.viscosity(), 0);
             if (r.degradationFunction() == RankineDamage.Degradation.QUADRATIC) {

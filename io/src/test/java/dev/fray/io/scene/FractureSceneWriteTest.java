@@ -157,35 +157,42 @@ class FractureSceneWriteTest extends FrayTestBase {
     }
 
     @Test
-    void rankineFromAFractureEnergyNeedsADescription() {
+    void rankineFromAFractureEnergyRoundTrips() {
         DamageModel rankine = Fracture.rankine().criticalStress(50).fractureEnergy(5, 1e5).build();
-        SceneDescription d = new SceneDescription(REGISTRY);
-        Scene scene = Scene.builder().cellSize(0.05).add(Body.named("chalk").shape(Shapes.sphere(0.5, 0.5, 0.5, 0.1))
-                .material(Elastic.neoHookean(1e5, 0.3, 1000)).damage(rankine).build()).build();
-        InvalidInputException e = assertThrows(InvalidInputException.class,
-                () -> SceneWriter.toJson(scene, OutputSettings.defaults(), d));
-        assertTrue(e.getMessage().contains("\"chalk\"") && e.getMessage().contains("Young's modulus")
-                && e.getMessage().contains("describe"), e.getMessage());
-        d.describe(rankine, ModelDescription.of("rankine", Map.of("criticalStress", 50, "fractureEnergy", 5,
-                "youngsModulus", 1e5)));
-        String json = SceneWriter.toJson(scene, OutputSettings.defaults(), d);
-        assertTrue(json.contains("\"youngsModulus\": 100000"), json);
+        String json = SceneWriter.toJson(sceneWith(rankine), OutputSettings.defaults(),
+                new SceneDescription(REGISTRY));
+        assertTrue(json.contains("\"youngsModulus\": 100000") && json.contains("\"fractureEnergy\": 5")
+                && !json.contains("softeningStress"), json);
+        RankineDamage back = assertInstanceOf(RankineDamage.class, readBack(json).scene().bodies().get(0).damage());
+        assertArrayEquals(new double[] {50, 5, 1e5}, new double[] {back.criticalStress(), back.fractureEnergy(),
+                back.youngsModulus()});
     }
 
     @Test
-    void aChosenTensionSplitIsWritten() {
+    void aChosenTensionSplitIsWrittenAndReadBack() {
+        for (TensionSplit split : TensionSplit.values()) {
+            DamageModel m = Fracture.phaseField().fractureEnergy(8).tensionSplit(split).build();
+            String json = SceneWriter.toJson(sceneWith(m), OutputSettings.defaults(), new SceneDescription(REGISTRY));
+            assertEquals(split != TensionSplit.LAW_DEFAULT, json.contains("\"split\""),
+                    "only a split other than the law's default is written:\n" + json);
+            assertEquals(split, readBack(json).scene().bodies().get(0).damage().tensionSplit());
+        }
+        // A host's own model that asks for a split is written with it too.
         DamageModel plain = Fracture.phaseField().fractureEnergy(8).build();
         DamageModel unsplit = new SplitChoice(plain, TensionSplit.NONE);
         SceneDescription d = new SceneDescription(REGISTRY);
         d.describe(unsplit, ModelDescription.of(PhaseFieldAT2.NAME, Map.of("fractureEnergy", 8)));
-        for (DamageModel m : List.of(plain, unsplit)) {
-            Scene scene = Scene.builder().cellSize(0.05).add(Body.named("slab")
-                    .shape(Shapes.box(0.4, 0.4, 0.4, 0.6, 0.6, 0.6)).material(Elastic.neoHookean(1e5, 0.3, 1000))
-                    .damage(m).build()).build();
-            String json = SceneWriter.toJson(scene, OutputSettings.defaults(), d);
-            assertEquals(m == unsplit, json.contains("\"split\": \"none\""), json);
-            assertEquals(m == unsplit, json.contains("\"split\""), "the law's default split is not written");
-        }
+        assertTrue(SceneWriter.toJson(sceneWith(unsplit), OutputSettings.defaults(), d)
+                .contains("\"split\": \"none\""));
+    }
+
+    private static Scene sceneWith(DamageModel m) {
+        return Scene.builder().cellSize(0.05).add(Body.named("slab").shape(Shapes.box(0.4, 0.4, 0.4, 0.6, 0.6, 0.6))
+                .material(Elastic.neoHookean(1e5, 0.3, 1000)).damage(m).build()).build();
+    }
+
+    private LoadedScene readBack(String json) {
+        return new SceneReader(REGISTRY).read(json.getBytes(StandardCharsets.UTF_8), "f.json", tmp);
     }
 
     /** A model that asks for another split than the law's default, as a host's own model may. */
