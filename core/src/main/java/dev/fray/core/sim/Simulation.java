@@ -808,16 +808,16 @@ public final class Simulation implements SimulationView, AutoCloseable {
                 double sy0 = a01 * dx, sy1 = a11 * dx, sy2 = a21 * dx;
                 double sz0 = a02 * dx, sz1 = a12 * dx, sz2 = a22 * dx;
                 int base = 4 * (((bx - baseX) * LOCAL + (by - baseY)) * LOCAL + (bz - baseZ));
-                for (int i = 0; i < s; i++) {
-                    double wi = wx[i];
-                    double qix = q0x + i * sx0, qiy = q0y + i * sx1, qiz = q0z + i * sx2;
-                    int oi = base + i * (4 * LOCAL * LOCAL);
-                    for (int j = 0; j < s; j++) {
-                        double wij = wi * wy[j];
-                        double qjx = qix + j * sy0, qjy = qiy + j * sy1, qjz = qiz + j * sy2;
-                        int oj = oi + j * (4 * LOCAL);
-                        if (s == 3) {
-                            // Quadratic stencil unrolled, as in the gather.
+                if (s == 3) {
+                    // Quadratic stencil with constant trip counts, so the compiler unrolls all 27 nodes.
+                    for (int i = 0; i < 3; i++) {
+                        double wi = wx[i];
+                        double qix = q0x + i * sx0, qiy = q0y + i * sx1, qiz = q0z + i * sx2;
+                        int oi = base + i * (4 * LOCAL * LOCAL);
+                        for (int j = 0; j < 3; j++) {
+                            double wij = wi * wy[j];
+                            double qjx = qix + j * sy0, qjy = qiy + j * sy1, qjz = qiz + j * sy2;
+                            int oj = oi + j * (4 * LOCAL);
                             double w0 = wij * wz[0], w1 = wij * wz[1], w2 = wij * wz[2];
                             loc[oj] += w0 * m;
                             loc[oj + 1] += w0 * qjx;
@@ -831,14 +831,20 @@ public final class Simulation implements SimulationView, AutoCloseable {
                             loc[oj + 9] += w2 * (qjx + 2 * sz0);
                             loc[oj + 10] += w2 * (qjy + 2 * sz1);
                             loc[oj + 11] += w2 * (qjz + 2 * sz2);
-                        } else {
+                        }
+                    }
+                } else {
+                    for (int i = 0; i < s; i++) {
+                        for (int j = 0; j < s; j++) {
+                            double wij = wx[i] * wy[j];
+                            int oj = base + 4 * ((i * LOCAL + j) * LOCAL);
                             for (int l = 0; l < s; l++) {
                                 double w = wij * wz[l];
                                 int q = oj + 4 * l;
                                 loc[q] += w * m;
-                                loc[q + 1] += w * (qjx + l * sz0);
-                                loc[q + 2] += w * (qjy + l * sz1);
-                                loc[q + 3] += w * (qjz + l * sz2);
+                                loc[q + 1] += w * (q0x + i * sx0 + j * sy0 + l * sz0);
+                                loc[q + 2] += w * (q0y + i * sx1 + j * sy1 + l * sz1);
+                                loc[q + 3] += w * (q0z + i * sx2 + j * sy2 + l * sz2);
                             }
                         }
                     }
@@ -1093,15 +1099,17 @@ public final class Simulation implements SimulationView, AutoCloseable {
             // Accumulate sum w v and sum w v (node index)^T; the offsets from the particle follow afterwards.
             double vx = 0, vy = 0, vz = 0;
             double b00 = 0, b01 = 0, b02 = 0, b10 = 0, b11 = 0, b12 = 0, b20 = 0, b21 = 0, b22 = 0;
-            for (int i = 0; i < s; i++) {
+            boolean quadratic = s == 3;
+            // Constant trip counts for the quadratic stencil, so the compiler unrolls all 27 nodes; the branch
+            // is the same for every particle.
+            for (int i = 0; quadratic ? i < 3 : i < s; i++) {
                 double wi = wx[i];
                 int oi = base + i * (4 * LOCAL * LOCAL);
-                for (int j = 0; j < s; j++) {
+                for (int j = 0; quadratic ? j < 3 : j < s; j++) {
                     double wij = wi * wy[j];
                     int oj = oi + j * (4 * LOCAL);
                     double sx = 0, sy = 0, sz = 0, tx = 0, ty = 0, tz = 0;
-                    if (s == 3) {
-                        // Quadratic stencil unrolled: a 3-trip loop costs more in loop overhead than in work.
+                    if (quadratic) {
                         double w1 = wz[1], w2 = wz[2], w0 = wz[0];
                         double u1x = w1 * loc[oj + 5], u1y = w1 * loc[oj + 6], u1z = w1 * loc[oj + 7];
                         double u2x = w2 * loc[oj + 9], u2y = w2 * loc[oj + 10], u2z = w2 * loc[oj + 11];
