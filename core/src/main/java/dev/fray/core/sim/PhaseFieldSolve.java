@@ -18,8 +18,6 @@ final class PhaseFieldSolve {
     private static final int C = DamageModel.COEFFICIENTS;
     private final Simulation sim;
     private double[] coef = new double[0];
-    private double[] flux = new double[0];
-    private double[] particleReaction = new double[0];
     private double[] reaction = new double[0];
     private double[] reactionDiag = new double[0];
     /**
@@ -41,8 +39,20 @@ final class PhaseFieldSolve {
     private int lastIterations;
     private double lastResidual;
 
+    /** Per worker: the partial sums of one dot-product task (two sums and a maximum). */
+    private final double[][] sums;
+    /** Per worker: block-local node buffer, {@link #FIELDS} values per node of the LOCAL^3 block neighbourhood. */
+    private final double[][] local;
+    /** Values per node in the local buffer: the six assembled fields, or a gathered and a scattered vector. */
+    private static final int FIELDS = 6;
+    private static final int L = Simulation.LOCAL;
+    /** Per particle block: smallest and largest local stencil base of its phase-field particles (x, y, z). */
+    private int[] range = new int[0];
+
     PhaseFieldSolve(Simulation sim) {
         this.sim = sim;
+        this.sums = new double[sim.workers.threads()][3];
+        this.local = new double[sim.workers.threads()][FIELDS * L * L * L];
     }
 
     int lastIterations() {
@@ -58,8 +68,6 @@ final class PhaseFieldSolve {
         int n = store.size();
         if (coef.length < C * n) {
             coef = new double[C * n];
-            flux = new double[3 * n];
-            particleReaction = new double[n];
         }
         int nodes = sim.grid.blockCount() * SparseGrid.NODES_PER_BLOCK;
         if (reaction.length < nodes) {
@@ -76,8 +84,8 @@ final class PhaseFieldSolve {
             weight = new double[cap];
         }
         int gridTasks = gridTasks();
-        if (partial.length < 2 * gridTasks) {
-            partial = new double[2 * gridTasks];
+        if (partial.length < 3 * gridTasks) {
+            partial = new double[3 * gridTasks];
         }
         sim.workers.forEach(gridTasks, (w, t) -> {
             int a = t * Simulation.GRID_TASK_BLOCKS * SparseGrid.NODES_PER_BLOCK;
@@ -86,38 +94,84 @@ final class PhaseFieldSolve {
                 Arrays.fill(v, a, b, 0.0);
             }
         });
-        // Coefficients per particle of phase-field bodies.
-        sim.workers.forEach(sim.blockCount, (w, blk) -> forRuns(blk, (from, to, model) -> {
-            double[] out = sim.scratch[w].work(C * (to - from));
-            model.phaseFieldCoefficients(store, from, to, h, out);
-            System.arraycopy(out, 0, coef, C * from, C * (to - from));
-        }));
-        // Assembly: source, the diagonals of the reaction and diffusion operators, and the warm start.
+        if (range.length < 6 * sim.blockCount) {
+            range = new int[6 * Math.max(sim.blockCount, range.length / 3)];
+        }
+        // Coefficients per particle of phase-field bodies, and the node range each block's particles reach.
+        sim.workers.forEach(sim.blockCount, (w, blk) -> {
+            int[] rg = range;
+            rg[6 * blk] = rg[6 * blk + 1] = rg[6 * blk + 2] = L;
+            rg[6 * blk + 3] = rg[6 * blk + 4] = rg[6 * blk + 5] = -1;
+            forRuns(blk, (from, to, model) -> {
+                double[] out = sim.scratch[w].work(C * (to - from));
+                model.phaseFieldCoefficients(store, from, to, h, out);
+                System.arraycopy(out, 0, coef, C * from, C * (to - from));
+                int[] lb = sim.scratch[w].node;
+                for (int p = from; p < to; p++) {
+                    localBase(blk, p, lb);
+                    for (int axis = 0; axis < 3; axis++) {
+                        rg[6 * blk + axis] = Math.min(rg[6 * blk + axis], lb[axis]);
+                        rg[6 * blk + 3 + axis] = Math.max(rg[6 * blk + 3 + axis], lb[axis]);
+                    }
+                }
+            });
+        });
+        // Assembly: source, the diagonals of the reaction and diffusion operators, and the warm start, summed per
+        // block in its local buffer and then added to the grid.
         double[] damage = store.channel(DamageModel.DAMAGE);
         double[] vol = store.volume();
-        scatterPhases((sc, blk) -> forRuns(blk, (from, to, model) -> {
-            for (int p = from; p < to; p++) {
-                int k = stencil(sc, blk, p);
-                double v = vol[p];
-                int c = C * p;
-                double a = coef[c], bb = coef[c + 1];
-                double dxx = coef[c + 2], dyy = coef[c + 3], dzz = coef[c + 4];
-                double dxy = coef[c + 5], dxz = coef[c + 6], dyz = coef[c + 7];
-                for (int i = 0; i < k; i++) {
-                    int node = sc.node[i];
-                    double wv = sc.w[i] * v;
-                    double gx = sc.gx[i], gy = sc.gy[i], gz = sc.gz[i];
-                    // Lumped row sums of the reaction term; the blend with the consistent term is applied below.
-                    reaction[node] += wv * a;
-                    reactionDiag[node] += wv * sc.w[i] * a;
-                    source[node] += wv * bb;
-                    weight[node] += wv;
-                    x[node] += wv * damage[p];
-                    diag[node] += v * (gx * (dxx * gx + dxy * gy + dxz * gz) + gy * (dxy * gx + dyy * gy + dyz * gz)
-                            + gz * (dxz * gx + dyz * gy + dzz * gz));
-                }
+        int s3 = sim.kernel.support();
+        scatterPhases((w, blk) -> {
+            if (range[6 * blk + 3] < 0) {
+                return;
             }
-        }));
+            Simulation.Scratch sc = sim.scratch[w];
+            double[] loc = local[w];
+            clear(loc, blk, FIELDS);
+            forRuns(blk, (from, to, model) -> {
+                for (int p = from; p < to; p++) {
+                    int base = axisWeights(sc, blk, p);
+                    double v = vol[p];
+                    int c = C * p;
+                    double aa = coef[c], bb = coef[c + 1];
+                    double dxx = coef[c + 2], dyy = coef[c + 3], dzz = coef[c + 4];
+                    double dxy = coef[c + 5], dxz = coef[c + 6], dyz = coef[c + 7];
+                    double dp = damage[p];
+                    for (int i = 0; i < s3; i++) {
+                        for (int j = 0; j < s3; j++) {
+                            double wij = sc.wx[i] * sc.wy[j];
+                            double gij = sc.dwx[i] * sc.wy[j], hij = sc.wx[i] * sc.dwy[j];
+                            int o = FIELDS * (base + (i * L + j) * L);
+                            for (int l = 0; l < s3; l++) {
+                                double wt = wij * sc.wz[l];
+                                double gx = gij * sc.wz[l], gy = hij * sc.wz[l], gz = wij * sc.dwz[l];
+                                double wv = wt * v;
+                                int q = o + FIELDS * l;
+                                // Lumped row sums of the reaction term; the blend with the consistent term is
+                                // applied below.
+                                loc[q] += wv * aa;
+                                loc[q + 1] += wv * wt * aa;
+                                loc[q + 2] += wv * bb;
+                                loc[q + 3] += wv;
+                                loc[q + 4] += wv * dp;
+                                loc[q + 5] += v * (gx * (dxx * gx + dxy * gy + dxz * gz)
+                                        + gy * (dxy * gx + dyy * gy + dyz * gz) + gz * (dxz * gx + dyz * gy + dzz * gz));
+                            }
+                        }
+                    }
+                }
+            });
+            double[] gr = reaction, grd = reactionDiag, gs = source, gw = weight, gx0 = x, gd = diag;
+            forNodes(blk, (q, node) -> {
+                int f = FIELDS * q;
+                gr[node] += loc[f];
+                grd[node] += loc[f + 1];
+                gs[node] += loc[f + 2];
+                gw[node] += loc[f + 3];
+                gx0[node] += loc[f + 4];
+                gd[node] += loc[f + 5];
+            });
+        });
         // Initial residual r = b - A x and the first search direction.
         nodeTasks(gridTasks, nodes, (a, b) -> {
             for (int i = a; i < b; i++) {
@@ -132,7 +186,7 @@ final class PhaseFieldSolve {
         });
         apply(x, q, gridTasks, nodes);
         double rz = nodeDots(gridTasks, nodes, (a, b, out) -> {
-            double s1 = 0, s2 = 0;
+            double s1 = 0, s2 = 0, big = 0;
             for (int i = a; i < b; i++) {
                 if (weight[i] > 0) {
                     r[i] = source[i] - q[i];
@@ -144,19 +198,26 @@ final class PhaseFieldSolve {
                 dir[i] = z[i];
                 s1 += r[i] * z[i];
                 s2 += source[i] * source[i];
+                big = Math.max(big, Math.abs(z[i]));
             }
             out[0] = s1;
             out[1] = s2;
+            out[2] = big;
         });
         double bnorm = Math.sqrt(lastSecond);
+        double correction = lastMax;
         double rnorm = residualNorm(gridTasks, nodes);
         // Relative to the larger of b and the first residual: with b = 0 and a non-zero warm start the solve
         // must still stop once the warm start has decayed.
         double scale = Math.max(Math.max(bnorm, rnorm), Double.MIN_NORMAL);
         double tol = sim.scene.phaseFieldTolerance() * scale;
+        // The field is damage, between 0 and 1: once the largest Jacobi correction r_i / diag_i is below the
+        // tolerance in damage units the field is as good as it gets, however small b is. Without this an intact
+        // body (b near 0) iterates on roundoff.
+        double absTol = sim.scene.phaseFieldTolerance();
         int maxIt = sim.scene.phaseFieldMaxIterations();
         int it = 0;
-        while (rnorm > tol && it < maxIt) {
+        while (rnorm > tol && correction > absTol && it < maxIt) {
             apply(dir, q, gridTasks, nodes);
             double pq = nodeDots(gridTasks, nodes, (a, b, out) -> {
                 double s1 = 0;
@@ -165,24 +226,28 @@ final class PhaseFieldSolve {
                 }
                 out[0] = s1;
                 out[1] = 0;
+                out[2] = 0;
             });
             if (!(pq > 0)) {
                 break;
             }
             double alpha = rz / pq;
             double rzNew = nodeDots(gridTasks, nodes, (a, b, out) -> {
-                double s1 = 0, s2 = 0;
+                double s1 = 0, s2 = 0, big = 0;
                 for (int i = a; i < b; i++) {
                     x[i] += alpha * dir[i];
                     r[i] -= alpha * q[i];
                     z[i] = r[i] / diag[i];
                     s1 += r[i] * z[i];
                     s2 += r[i] * r[i];
+                    big = Math.max(big, Math.abs(z[i]));
                 }
                 out[0] = s1;
                 out[1] = s2;
+                out[2] = big;
             });
             rnorm = Math.sqrt(lastSecond);
+            correction = lastMax;
             double beta = rzNew / rz;
             rz = rzNew;
             nodeTasks(gridTasks, nodes, (a, b) -> {
@@ -196,14 +261,26 @@ final class PhaseFieldSolve {
         lastResidual = rnorm / scale;
         // Back to the particles.
         sim.workers.forEach(sim.blockCount, (w, blk) -> {
+            if (range[6 * blk + 3] < 0) {
+                return;
+            }
             Simulation.Scratch sc = sim.scratch[w];
+            double[] loc = local[w];
+            double[] xs = x;
+            forNodes(blk, (q, node) -> loc[q] = xs[node]);
             forRuns(blk, (from, to, model) -> {
                 double[] out = sc.work(to - from);
                 for (int p = from; p < to; p++) {
-                    int k = stencil(sc, blk, p);
+                    int base = axisWeights(sc, blk, p);
                     double d = 0;
-                    for (int i = 0; i < k; i++) {
-                        d += sc.w[i] * x[sc.node[i]];
+                    for (int i = 0; i < s3; i++) {
+                        for (int j = 0; j < s3; j++) {
+                            double wij = sc.wx[i] * sc.wy[j];
+                            int o = base + (i * L + j) * L;
+                            for (int l = 0; l < s3; l++) {
+                                d += wij * sc.wz[l] * loc[o + l];
+                            }
+                        }
                     }
                     out[p - from] = d;
                 }
@@ -220,54 +297,150 @@ final class PhaseFieldSolve {
             }
             out[0] = s;
             out[1] = 0;
+            out[2] = 0;
         });
         return Math.sqrt(lastFirst);
     }
 
-    /** out = A v: reaction plus diffusion operator, matrix-free through the particles. */
+    /**
+     * out = A v: reaction plus diffusion operator, matrix-free through the particles. Each particle block loads v
+     * over its nodes into its local buffer; each particle gathers v and its gradient there and scatters its
+     * reaction and flux back into the buffer at once, which is then added to out. Blocks run in the colour phases
+     * of the transfer, so blocks running together touch disjoint nodes.
+     */
     private void apply(double[] v, double[] out, int gridTasks, int nodes) {
-        ParticleStore store = sim.store;
-        double[] vol = store.volume();
-        sim.workers.forEach(sim.blockCount, (w, blk) -> {
-            Simulation.Scratch sc = sim.scratch[w];
-            forRuns(blk, (from, to, model) -> {
-                for (int p = from; p < to; p++) {
-                    int k = stencil(sc, blk, p);
-                    double gx = 0, gy = 0, gz = 0, val = 0;
-                    for (int i = 0; i < k; i++) {
-                        double vi = v[sc.node[i]];
-                        val += sc.w[i] * vi;
-                        gx += sc.gx[i] * vi;
-                        gy += sc.gy[i] * vi;
-                        gz += sc.gz[i] * vi;
-                    }
-                    int c = C * p;
-                    double vp = vol[p];
-                    particleReaction[p] = CONSISTENT * vp * coef[c] * val;
-                    flux[3 * p] = vp * (coef[c + 2] * gx + coef[c + 5] * gy + coef[c + 6] * gz);
-                    flux[3 * p + 1] = vp * (coef[c + 5] * gx + coef[c + 3] * gy + coef[c + 7] * gz);
-                    flux[3 * p + 2] = vp * (coef[c + 6] * gx + coef[c + 7] * gy + coef[c + 4] * gz);
-                }
-            });
-        });
+        double[] vol = sim.store.volume();
+        int s3 = sim.kernel.support();
         nodeTasks(gridTasks, nodes, (a, b) -> Arrays.fill(out, a, b, 0.0));
         // Consistent part of the reaction, sum_p V a w_i (sum_j w_j v_j), plus diffusion
         // sum_p grad w_i . (V D grad v); the lumped part of the reaction is added node by node after.
-        scatterPhases((sc, blk) -> forRuns(blk, (from, to, model) -> {
-            for (int p = from; p < to; p++) {
-                int k = stencil(sc, blk, p);
-                double fx = flux[3 * p], fy = flux[3 * p + 1], fz = flux[3 * p + 2];
-                double rp = particleReaction[p];
-                for (int i = 0; i < k; i++) {
-                    out[sc.node[i]] += sc.w[i] * rp + sc.gx[i] * fx + sc.gy[i] * fy + sc.gz[i] * fz;
-                }
+        scatterPhases((w, blk) -> {
+            if (range[6 * blk + 3] < 0) {
+                return;
             }
-        }));
+            Simulation.Scratch sc = sim.scratch[w];
+            double[] loc = local[w];
+            clear(loc, blk, 2);
+            forNodes(blk, (q, node) -> loc[2 * q] = v[node]);
+            forRuns(blk, (from, to, model) -> {
+                for (int p = from; p < to; p++) {
+                    int base = axisWeights(sc, blk, p);
+                    double gx = 0, gy = 0, gz = 0, val = 0;
+                    for (int i = 0; i < s3; i++) {
+                        for (int j = 0; j < s3; j++) {
+                            double wij = sc.wx[i] * sc.wy[j];
+                            double gij = sc.dwx[i] * sc.wy[j], hij = sc.wx[i] * sc.dwy[j];
+                            int o = 2 * (base + (i * L + j) * L);
+                            double t0 = 0, t1 = 0;
+                            for (int l = 0; l < s3; l++) {
+                                double vi = loc[o + 2 * l];
+                                t0 += sc.wz[l] * vi;
+                                t1 += sc.dwz[l] * vi;
+                            }
+                            val += wij * t0;
+                            gx += gij * t0;
+                            gy += hij * t0;
+                            gz += wij * t1;
+                        }
+                    }
+                    int c = C * p;
+                    double vp = vol[p];
+                    double rp = CONSISTENT * vp * coef[c] * val;
+                    double fx = vp * (coef[c + 2] * gx + coef[c + 5] * gy + coef[c + 6] * gz);
+                    double fy = vp * (coef[c + 5] * gx + coef[c + 3] * gy + coef[c + 7] * gz);
+                    double fz = vp * (coef[c + 6] * gx + coef[c + 7] * gy + coef[c + 4] * gz);
+                    for (int i = 0; i < s3; i++) {
+                        for (int j = 0; j < s3; j++) {
+                            double wij = sc.wx[i] * sc.wy[j];
+                            // Per node: w rp + (dw_x w_y w_z) fx + (w_x dw_y w_z) fy + (w_x w_y dw_z) fz.
+                            double k0 = wij * rp + sc.dwx[i] * sc.wy[j] * fx + sc.wx[i] * sc.dwy[j] * fy;
+                            double k1 = wij * fz;
+                            int o = 2 * (base + (i * L + j) * L);
+                            for (int l = 0; l < s3; l++) {
+                                loc[o + 2 * l + 1] += sc.wz[l] * k0 + sc.dwz[l] * k1;
+                            }
+                        }
+                    }
+                }
+            });
+            forNodes(blk, (q, node) -> out[node] += loc[2 * q + 1]);
+        });
         nodeTasks(gridTasks, nodes, (a, b) -> {
             for (int i = a; i < b; i++) {
                 out[i] = weight[i] > 0 ? out[i] + (1 - CONSISTENT) * reaction[i] * v[i] : 0;
             }
         });
+    }
+
+    // ------------------------------------------------------------------ block-local helpers
+
+    @FunctionalInterface
+    private interface NodeBody {
+        void run(int localIndex, int node);
+    }
+
+    /** Calls body for every node that block blk's phase-field particles reach: local index and grid node. */
+    private void forNodes(int blk, NodeBody body) {
+        int s = sim.kernel.support();
+        int[] rg = range;
+        for (int i = rg[6 * blk], ie = rg[6 * blk + 3] + s; i < ie; i++) {
+            for (int j = rg[6 * blk + 1], je = rg[6 * blk + 4] + s; j < je; j++) {
+                for (int l = rg[6 * blk + 2], le = rg[6 * blk + 5] + s; l < le; l++) {
+                    body.run((i * L + j) * L + l, sim.node(blk, i, j, l));
+                }
+            }
+        }
+    }
+
+    /** Zeroes the first {@code fields} values of every node of block blk's range in the local buffer. */
+    private void clear(double[] loc, int blk, int fields) {
+        int s = sim.kernel.support();
+        int[] rg = range;
+        for (int i = rg[6 * blk], ie = rg[6 * blk + 3] + s; i < ie; i++) {
+            for (int j = rg[6 * blk + 1], je = rg[6 * blk + 4] + s; j < je; j++) {
+                int o = (i * L + j) * L;
+                Arrays.fill(loc, fields * (o + rg[6 * blk + 2]), fields * (o + rg[6 * blk + 5] + s), 0.0);
+            }
+        }
+    }
+
+    /** Local stencil base of particle p in block blk, per axis, into out[0..2]. */
+    private void localBase(int blk, int p, int[] out) {
+        double[] pos = sim.store.position();
+        long key = sim.blockKeys[blk];
+        out[0] = sim.kernel.base((pos[3 * p] - sim.ox) * sim.invDx) - Simulation.localOrigin(SparseGrid.keyX(key));
+        out[1] = sim.kernel.base((pos[3 * p + 1] - sim.oy) * sim.invDx) - Simulation.localOrigin(SparseGrid.keyY(key));
+        out[2] = sim.kernel.base((pos[3 * p + 2] - sim.oz) * sim.invDx) - Simulation.localOrigin(SparseGrid.keyZ(key));
+    }
+
+    /**
+     * Fills the scratch with particle p's weights and weight derivatives per axis (derivatives in 1/m).
+     *
+     * @return local index (i L + j) L + l of the particle's first stencil node in block blk's buffer
+     */
+    private int axisWeights(Simulation.Scratch sc, int blk, int p) {
+        double[] pos = sim.store.position();
+        long key = sim.blockKeys[blk];
+        double xi = (pos[3 * p] - sim.ox) * sim.invDx, yi = (pos[3 * p + 1] - sim.oy) * sim.invDx;
+        double zi = (pos[3 * p + 2] - sim.oz) * sim.invDx;
+        int bx = sim.kernel.base(xi), by = sim.kernel.base(yi), bz = sim.kernel.base(zi);
+        double fx = xi - bx, fy = yi - by, fz = zi - bz;
+        sim.kernel.weights(fx, sc.wx, 0);
+        sim.kernel.weights(fy, sc.wy, 0);
+        sim.kernel.weights(fz, sc.wz, 0);
+        sim.kernel.derivatives(fx, sc.dwx, 0);
+        sim.kernel.derivatives(fy, sc.dwy, 0);
+        sim.kernel.derivatives(fz, sc.dwz, 0);
+        double inv = sim.invDx;
+        for (int i = 0, s = sim.kernel.support(); i < s; i++) {
+            sc.dwx[i] *= inv;
+            sc.dwy[i] *= inv;
+            sc.dwz[i] *= inv;
+        }
+        int lx = bx - Simulation.localOrigin(SparseGrid.keyX(key));
+        int ly = by - Simulation.localOrigin(SparseGrid.keyY(key));
+        int lz = bz - Simulation.localOrigin(SparseGrid.keyZ(key));
+        return (lx * L + ly) * L + lz;
     }
 
     // ------------------------------------------------------------------ iteration helpers
@@ -279,7 +452,7 @@ final class PhaseFieldSolve {
 
     @FunctionalInterface
     private interface BlockBody {
-        void run(Simulation.Scratch sc, int block);
+        void run(int worker, int block);
     }
 
     @FunctionalInterface
@@ -315,7 +488,7 @@ final class PhaseFieldSolve {
         for (int c = 0; c < 8; c++) {
             final int from = sim.colourStart[c];
             sim.workers.forEach(sim.colourStart[c + 1] - from,
-                    (w, t) -> body.run(sim.scratch[w], sim.colourBlocks[from + t]));
+                    (w, t) -> body.run(w, sim.colourBlocks[from + t]));
         }
     }
 
@@ -330,64 +503,30 @@ final class PhaseFieldSolve {
 
     private double lastFirst;
     private double lastSecond;
+    private double lastMax;
 
-    /** Two sums over nodes, each formed per fixed task and combined in task order; returns the first. */
+    /**
+     * Two sums and a maximum over nodes, each formed per fixed task and combined in task order; returns the first
+     * sum.
+     */
     private double nodeDots(int tasks, int nodes, DotBody body) {
         int per = Simulation.GRID_TASK_BLOCKS * SparseGrid.NODES_PER_BLOCK;
         sim.workers.forEach(tasks, (w, t) -> {
-            double[] out = sim.scratch[w].pair;
+            double[] out = sums[w];
             body.run(t * per, Math.min(nodes, (t + 1) * per), out);
-            partial[2 * t] = out[0];
-            partial[2 * t + 1] = out[1];
+            partial[3 * t] = out[0];
+            partial[3 * t + 1] = out[1];
+            partial[3 * t + 2] = out[2];
         });
-        double s1 = 0, s2 = 0;
+        double s1 = 0, s2 = 0, big = 0;
         for (int t = 0; t < tasks; t++) {
-            s1 += partial[2 * t];
-            s2 += partial[2 * t + 1];
+            s1 += partial[3 * t];
+            s2 += partial[3 * t + 1];
+            big = Math.max(big, partial[3 * t + 2]);
         }
         lastFirst = s1;
         lastSecond = s2;
+        lastMax = big;
         return s1;
-    }
-
-    /**
-     * Fills the scratch with particle p's stencil: node indices, weights and weight gradients (1/m).
-     *
-     * @return number of stencil nodes
-     */
-    private int stencil(Simulation.Scratch sc, int blk, int p) {
-        double[] pos = sim.store.position();
-        long key = sim.blockKeys[blk];
-        int baseX = Simulation.localOrigin(SparseGrid.keyX(key)), baseY = Simulation.localOrigin(SparseGrid.keyY(key));
-        int baseZ = Simulation.localOrigin(SparseGrid.keyZ(key));
-        double xi = (pos[3 * p] - sim.ox) * sim.invDx, yi = (pos[3 * p + 1] - sim.oy) * sim.invDx;
-        double zi = (pos[3 * p + 2] - sim.oz) * sim.invDx;
-        int bx = sim.kernel.base(xi), by = sim.kernel.base(yi), bz = sim.kernel.base(zi);
-        double fx = xi - bx, fy = yi - by, fz = zi - bz;
-        sim.kernel.weights(fx, sc.wx, 0);
-        sim.kernel.weights(fy, sc.wy, 0);
-        sim.kernel.weights(fz, sc.wz, 0);
-        sim.kernel.derivatives(fx, sc.dwx, 0);
-        sim.kernel.derivatives(fy, sc.dwy, 0);
-        sim.kernel.derivatives(fz, sc.dwz, 0);
-        int s = sim.kernel.support();
-        double inv = sim.invDx;
-        int k = 0;
-        for (int i = 0; i < s; i++) {
-            int gx = bx - baseX + i;
-            for (int j = 0; j < s; j++) {
-                int gy = by - baseY + j;
-                for (int l = 0; l < s; l++) {
-                    int gz = bz - baseZ + l;
-                    sc.node[k] = sim.node(blk, gx, gy, gz);
-                    sc.w[k] = sc.wx[i] * sc.wy[j] * sc.wz[l];
-                    sc.gx[k] = sc.dwx[i] * sc.wy[j] * sc.wz[l] * inv;
-                    sc.gy[k] = sc.wx[i] * sc.dwy[j] * sc.wz[l] * inv;
-                    sc.gz[k] = sc.wx[i] * sc.wy[j] * sc.dwz[l] * inv;
-                    k++;
-                }
-            }
-        }
-        return k;
     }
 }

@@ -42,7 +42,7 @@ public class DropBenchmark {
     public int threads;
 
     /** Benchmark scene. */
-    @Param({StandardBench.DROP})
+    @Param({StandardBench.DROP, StandardBench.DROP_DAMAGE, StandardBench.DROP_FIBERS})
     public String scene;
 
     private Simulation sim;

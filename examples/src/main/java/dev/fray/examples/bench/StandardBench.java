@@ -10,7 +10,14 @@ import dev.fray.core.kernel.Kernel;
 import dev.fray.core.sim.Body;
 import dev.fray.core.sim.Scene;
 import dev.fray.core.sim.Simulation;
+import dev.fray.core.damage.DamageModel;
+import dev.fray.core.material.MaterialLaw;
+import dev.fray.core.particles.ChannelField;
 import dev.fray.damage.Elastic;
+import dev.fray.damage.Fibers;
+import dev.fray.damage.Fracture;
+import dev.fray.damage.fiber.FiberChannels;
+import dev.fray.damage.fiber.FiberFields;
 import dev.fray.damage.elastic.ElasticParameters;
 
 import java.lang.management.ManagementFactory;
@@ -28,14 +35,31 @@ import java.util.List;
  * step dt = 0.4 dx / c with c = sqrt((lambda + 2 mu) / rho). The frame interval is set longer than the run so no
  * step is shortened to land on a frame time.
  *
+ * <p>Scene "drop-damage": the same cube with AT2 phase-field damage (fracture energy {@value #GC} J/m^2, length
+ * scale two cells, no crack-speed viscosity, the library's default phase-field solver settings); the impact breaks
+ * it. Scene "drop-fibers": the same cube reinforced by one fiber family along x (quadratic fiber term, stiffness
+ * {@value #FIBER_STIFFNESS} Pa) with the anisotropic phase field (same fracture energy, fiber strength
+ * {@value #FIBER_STRENGTH}). The time step of both variants uses the fiber-stiffened wave speed the law reports.
+ *
  * <p>Timing excludes setup (particle sampling, thread start). Heap use is read from {@link MemoryMXBean}: after a
- * garbage collection before and after setup, sampled (without collecting) about 20 times during the run, and after
- * a final collection; the peak of these is reported. This is a quick whole-program measure; the JIT warms up
- * during the first steps unless warm-up steps are asked for.
+ * garbage collection before setup, sampled (without collecting) about 20 times during the run, and after a final
+ * collection with the simulation still open. The retained heap (after that collection, less the heap before
+ * setup) per particle is what the simulation keeps; the peak of the samples also holds garbage not yet collected.
+ * The JIT warms up during the first steps unless warm-up steps are asked for.
  */
 public final class StandardBench {
     /** Name of the falling-cube scene. */
     public static final String DROP = "drop";
+    /** The falling cube with AT2 phase-field damage. */
+    public static final String DROP_DAMAGE = "drop-damage";
+    /** The falling cube with one fiber family and the anisotropic phase field. */
+    public static final String DROP_FIBERS = "drop-fibers";
+    /** Fracture energy of the damage variants, J/m^2. */
+    public static final double GC = 100;
+    /** Fiber stiffness of drop-fibers, Pa. */
+    public static final double FIBER_STIFFNESS = 2e5;
+    /** Anisotropy strength of drop-fibers' phase field (dimensionless). */
+    public static final double FIBER_STRENGTH = 10;
     /** Seed of the particle jitter. */
     public static final long SEED = 20240501L;
     /** Default particle count requested. */
@@ -43,7 +67,7 @@ public final class StandardBench {
     /** Default number of timed steps. */
     public static final int DEFAULT_STEPS = 200;
 
-    private static final List<String> SCENES = List.of(DROP);
+    private static final List<String> SCENES = List.of(DROP, DROP_DAMAGE, DROP_FIBERS);
     private static final double E = 1e5;
     private static final double NU = 0.3;
     private static final double RHO = 1000;
@@ -60,14 +84,17 @@ public final class StandardBench {
      * @param threads                worker threads
      * @param seconds                wall-clock time of the timed steps, s
      * @param particleStepsPerSecond particles times steps divided by seconds, 1/s
-     * @param peakHeapBytes          largest heap use seen, bytes
-     * @param bytesPerParticle       (peak heap - heap before setup) / particles, bytes
+     * @param peakHeapBytes          largest heap use seen, bytes, garbage not yet collected included
+     * @param bytesPerParticle       heap the simulation retains (after a collection at the end, less the heap
+     *                               before setup) per particle, bytes
+     * @param peakBytesPerParticle   (peak heap - heap before setup) / particles, bytes
+     * @param gridBytes              memory of the sparse grid at the end, bytes (grows with occupied blocks)
      * @param phaseShares            share of the timed wall time per solver phase (sort, stress, scatter, grid,
      *                               solve, gather), summing to about 1
      */
     public record Result(String scene, int particles, int steps, int threads, double seconds,
                          double particleStepsPerSecond, long peakHeapBytes, double bytesPerParticle,
-                         java.util.Map<String, Double> phaseShares) {
+                         double peakBytesPerParticle, long gridBytes, java.util.Map<String, Double> phaseShares) {
     }
 
     /** @return the benchmark scene names */
@@ -106,10 +133,30 @@ public final class StandardBench {
         int m = cubeCells(particles);
         int n = (int) Math.round(m / 0.4);
         double dx = 1.0 / n;
-        double c = ElasticParameters.of(E, NU, RHO).pWaveSpeed();
+        MaterialLaw law = Elastic.fixedCorotated(E, NU, RHO);
+        DamageModel damage = null;
+        ChannelField fibers = null;
+        if (name.equals(DROP_DAMAGE)) {
+            damage = Fracture.phaseField().fractureEnergy(GC).build();
+        } else if (name.equals(DROP_FIBERS)) {
+            law = Fibers.reinforce(law).quadratic(FIBER_STIFFNESS).build();
+            damage = Fracture.anisotropicPhaseField().fractureEnergy(GC).fiberStrengths(FIBER_STRENGTH).build();
+            fibers = FiberFields.uniform(1, 0, 0);
+        }
+        double c = name.equals(DROP) ? ElasticParameters.of(E, NU, RHO).pWaveSpeed() : law.waveSpeed();
         double dt = 0.4 * dx / c;
         double x0 = 0.3, y0 = 0.5, z0 = 0.3;
         double edge = m * dx;
+        Body.Builder cube = Body.named("cube")
+                .shape(Shapes.box(x0, y0, z0, x0 + edge, y0 + edge, z0 + edge))
+                .material(law)
+                .damage(damage)
+                .spacing(0.5 * dx)
+                .jitter(0.25)
+                .seed(SEED);
+        if (fibers != null) {
+            cube.initialChannel(FiberChannels.reference(1), fibers);
+        }
         return Scene.builder()
                 .domain(0, 0, 0, 1, 1, 1)
                 .cellSize(dx)
@@ -120,13 +167,7 @@ public final class StandardBench {
                 // Frames only matter for output; keep the first frame time beyond the run.
                 .frameRate(1.0 / (2.0 * steps * dt))
                 .threads(threads)
-                .add(Body.named("cube")
-                        .shape(Shapes.box(x0, y0, z0, x0 + edge, y0 + edge, z0 + edge))
-                        .material(Elastic.fixedCorotated(E, NU, RHO))
-                        .spacing(0.5 * dx)
-                        .jitter(0.25)
-                        .seed(SEED)
-                        .build())
+                .add(cube.build())
                 .build();
     }
 
@@ -173,10 +214,11 @@ public final class StandardBench {
             java.util.Map<String, Double> shares = new java.util.LinkedHashMap<>();
             sim.phaseSeconds().forEach((phase, total) -> shares.put(phase, (total - phases0.get(phase)) / seconds));
             memory.gc();
-            peak = Math.max(peak, memory.getHeapMemoryUsage().getUsed());
+            long retained = memory.getHeapMemoryUsage().getUsed();
+            peak = Math.max(peak, retained);
             int np = sim.particles().size();
             return new Result(name, np, steps, threads, seconds, (double) np * steps / seconds, peak,
-                    (double) (peak - before) / np, shares);
+                    (double) (retained - before) / np, (double) (peak - before) / np, sim.gridMemoryBytes(), shares);
         }
     }
 }

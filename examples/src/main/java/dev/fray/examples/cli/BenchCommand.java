@@ -16,11 +16,13 @@ import picocli.CommandLine.Spec;
 
 /**
  * {@code fray bench}: runs a standard benchmark scene and prints exactly one JSON line on standard output with the
- * keys scene, particles, steps, threads, seconds, particleStepsPerSecond, peakHeapBytes and bytesPerParticle.
+ * keys scene, particles, steps, threads, seconds, particleStepsPerSecond, peakHeapBytes, bytesPerParticle (heap
+ * retained per particle), peakBytesPerParticle (peak heap per particle, uncollected garbage included) and gridBytes.
  */
 @Command(name = "bench", mixinStandardHelpOptions = true,
         description = {"Run a standard benchmark and print one JSON line with the measurements.",
-            "Scene 'drop': a fixed-corotated cube falling in the unit box (see StandardBench)."})
+            "Scene 'drop': a fixed-corotated cube falling in the unit box; 'drop-damage' adds AT2 phase-field "
+                + "damage, 'drop-fibers' one fiber family and the anisotropic phase field (see StandardBench)."})
 public final class BenchCommand implements Callable<Integer> {
     private static final ObjectMapper JSON = new ObjectMapper();
 
@@ -31,7 +33,7 @@ public final class BenchCommand implements Callable<Integer> {
     private DebugOption debug;
 
     @Option(names = "--scene", paramLabel = "NAME", defaultValue = StandardBench.DROP,
-            description = "Benchmark scene (default: ${DEFAULT-VALUE}).")
+            description = "Benchmark scene: drop, drop-damage or drop-fibers (default: ${DEFAULT-VALUE}).")
     private String scene;
 
     @Option(names = "--particles", paramLabel = "N", defaultValue = "100000",
@@ -83,6 +85,8 @@ public final class BenchCommand implements Callable<Integer> {
         o.put("particleStepsPerSecond", r.particleStepsPerSecond());
         o.put("peakHeapBytes", r.peakHeapBytes());
         o.put("bytesPerParticle", r.bytesPerParticle());
+        o.put("peakBytesPerParticle", r.peakBytesPerParticle());
+        o.put("gridBytes", r.gridBytes());
         if (breakdown) {
             ObjectNode phases = o.putObject("phaseShares");
             r.phaseShares().forEach(phases::put);

@@ -106,7 +106,7 @@ class FrayCommandTest {
             keys.add(it.next());
         }
         assertEquals(List.of("scene", "particles", "steps", "threads", "seconds", "particleStepsPerSecond",
-                "peakHeapBytes", "bytesPerParticle"), keys);
+                "peakHeapBytes", "bytesPerParticle", "peakBytesPerParticle", "gridBytes"), keys);
         assertEquals("drop", json.get("scene").asText());
         assertEquals(4096, json.get("particles").asInt(), "(2m)^3 with m = round(cbrt(4000/8)) = 8");
         assertEquals(5, json.get("steps").asInt());
@@ -115,6 +115,22 @@ class FrayCommandTest {
         assertTrue(json.get("particleStepsPerSecond").asDouble() > 0);
         assertTrue(json.get("peakHeapBytes").asLong() > 0);
         assertTrue(json.get("bytesPerParticle").isNumber());
+        assertTrue(json.get("gridBytes").asLong() > 0);
+    }
+
+    @Test
+    void benchVariantsWithDamageRun() throws IOException {
+        for (String scene : List.of("drop-damage", "drop-fibers")) {
+            Run r = fray("bench", "--scene", scene, "--particles", "1000", "--steps", "3", "--threads", "2",
+                    "--breakdown");
+            assertEquals(0, r.code(), r.err());
+            JsonNode json = new ObjectMapper().readTree(r.out().lines().toList().get(0));
+            assertEquals(scene, json.get("scene").asText());
+            assertTrue(json.get("phaseShares").get("solve").asDouble() > 0, "the phase field is solved: " + json);
+        }
+        Run bad = fray("bench", "--scene", "drop-dmg");
+        assertEquals(FrayCommand.BAD_INPUT, bad.code());
+        assertTrue(bad.err().contains("drop-damage"), bad.err());
     }
 
     @Test
