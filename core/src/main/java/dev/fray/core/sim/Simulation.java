@@ -38,7 +38,7 @@ import java.util.concurrent.CopyOnWriteArrayList;
  * {@link #requestStop()} may be called from another.
  */
 public final class Simulation implements SimulationView, AutoCloseable {
-    private static final String GRIP_CHANNEL = "grip";
+    static final String GRIP_CHANNEL = "grip";
     private static final int DIAG_CHUNK = 4096;
     static final int GRID_TASK_BLOCKS = 16;
 
@@ -51,6 +51,8 @@ public final class Simulation implements SimulationView, AutoCloseable {
     private final boolean phaseField;
     private final boolean anyProjection;
     private final PhaseFieldSolve phaseFieldSolve;
+    /** Two velocity fields per node near cracks, or null when the scene does not ask for it. */
+    private final Separation separation;
     private final List<String> bodyNames;
     final Kernel kernel;
     final double dx;
@@ -174,6 +176,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         }
         maxSpeed = currentMaxSpeed();
         phaseFieldSolve = phaseField ? new PhaseFieldSolve(this) : null;
+        separation = scene.separates() ? new Separation(this) : null;
     }
 
     private void applyInitialChannels(List<Body> bodies) {
@@ -496,6 +499,9 @@ public final class Simulation implements SimulationView, AutoCloseable {
         }
         zeroGrid();
         long t1 = System.nanoTime();
+        if (separation != null) {
+            separation.partition();
+        }
         scatter(h);
         long t2 = System.nanoTime();
         updateGrid(h);
@@ -643,8 +649,15 @@ public final class Simulation implements SimulationView, AutoCloseable {
 
     private void zeroGrid() {
         int gb = grid.blockCount();
-        workers.forEach((gb + GRID_TASK_BLOCKS - 1) / GRID_TASK_BLOCKS, (w, t) ->
-                grid.zero(t * GRID_TASK_BLOCKS, Math.min(gb, (t + 1) * GRID_TASK_BLOCKS)));
+        if (separation != null) {
+            separation.ensureNodes(gb * SparseGrid.NODES_PER_BLOCK);
+        }
+        workers.forEach((gb + GRID_TASK_BLOCKS - 1) / GRID_TASK_BLOCKS, (w, t) -> {
+            grid.zero(t * GRID_TASK_BLOCKS, Math.min(gb, (t + 1) * GRID_TASK_BLOCKS));
+            if (separation != null) {
+                separation.zero(t * GRID_TASK_BLOCKS, Math.min(gb, (t + 1) * GRID_TASK_BLOCKS));
+            }
+        });
     }
 
     /**
@@ -754,23 +767,12 @@ public final class Simulation implements SimulationView, AutoCloseable {
     private void scatterParticles(Scratch sc, int r, double h) {
         int start = blockStart[r];
         int end = blockStart[r + 1];
-        long key = blockKeys[r];
-        int baseX = localOrigin(SparseGrid.keyX(key)), baseY = localOrigin(SparseGrid.keyY(key));
-        int baseZ = localOrigin(SparseGrid.keyZ(key));
         int s = kernel.support();
-        double dinv = kernel.inverseInertia(dx);
-        double[] x = store.position();
-        double[] v = store.velocity();
-        double[] cm = store.affine();
-        double[] mass = store.mass();
-        double[] vol = store.volume();
         int[] body = store.body();
-        double[] gripOf = scene.grips().isEmpty() ? null : store.channel(GRIP_CHANNEL);
         // Scatter into a dense block-local buffer (mass and momentum per node), then add it to the sparse grid
         // once: the inner loop needs no neighbour lookup and the grid sees one write per node per block.
         double[] loc = sc.local;
         clearLocal(loc, r, s);
-        double[] wx = sc.wx, wy = sc.wy, wz = sc.wz;
         for (int runStart = start; runStart < end; ) {
             int b = body[runStart];
             int runEnd = runStart + 1;
@@ -781,81 +783,110 @@ public final class Simulation implements SimulationView, AutoCloseable {
             long s0 = System.nanoTime();
             stress(sc, b, runStart, runEnd, h, tau);
             sc.stressNanos += System.nanoTime() - s0;
-            for (int p = runStart; p < runEnd; p++) {
-                double xi = (x[3 * p] - ox) * invDx, yi = (x[3 * p + 1] - oy) * invDx;
-                double zi = (x[3 * p + 2] - oz) * invDx;
-                int bx = kernel.base(xi), by = kernel.base(yi), bz = kernel.base(zi);
-                double fx = xi - bx, fy = yi - by, fz = zi - bz;
-                kernel.weights(fx, wx, 0);
-                kernel.weights(fy, wy, 0);
-                kernel.weights(fz, wz, 0);
-                double m = mass[p];
-                int o = 9 * (p - runStart);
-                double k = -h * vol[p] * dinv;
-                int c9 = 9 * p;
-                double a00 = m * cm[c9] + k * tau[o], a01 = m * cm[c9 + 1] + k * tau[o + 1];
-                double a02 = m * cm[c9 + 2] + k * tau[o + 2];
-                double a10 = m * cm[c9 + 3] + k * tau[o + 3], a11 = m * cm[c9 + 4] + k * tau[o + 4];
-                double a12 = m * cm[c9 + 5] + k * tau[o + 5];
-                double a20 = m * cm[c9 + 6] + k * tau[o + 6], a21 = m * cm[c9 + 7] + k * tau[o + 7];
-                double a22 = m * cm[c9 + 8] + k * tau[o + 8];
-                // Momentum at offset d from the particle is m v + A d; write d = (node - f) dx and expand.
-                double ex = -fx * dx, ey = -fy * dx, ez = -fz * dx;
-                double q0x = m * v[3 * p] + a00 * ex + a01 * ey + a02 * ez;
-                double q0y = m * v[3 * p + 1] + a10 * ex + a11 * ey + a12 * ez;
-                double q0z = m * v[3 * p + 2] + a20 * ex + a21 * ey + a22 * ez;
-                double sx0 = a00 * dx, sx1 = a10 * dx, sx2 = a20 * dx;
-                double sy0 = a01 * dx, sy1 = a11 * dx, sy2 = a21 * dx;
-                double sz0 = a02 * dx, sz1 = a12 * dx, sz2 = a22 * dx;
-                int base = 4 * (((bx - baseX) * LOCAL + (by - baseY)) * LOCAL + (bz - baseZ));
-                if (s == 3) {
-                    // Quadratic stencil with constant trip counts, so the compiler unrolls all 27 nodes.
-                    for (int i = 0; i < 3; i++) {
-                        double wi = wx[i];
-                        double qix = q0x + i * sx0, qiy = q0y + i * sx1, qiz = q0z + i * sx2;
-                        int oi = base + i * (4 * LOCAL * LOCAL);
-                        for (int j = 0; j < 3; j++) {
-                            double wij = wi * wy[j];
-                            double qjx = qix + j * sy0, qjy = qiy + j * sy1, qjz = qiz + j * sy2;
-                            int oj = oi + j * (4 * LOCAL);
-                            double w0 = wij * wz[0], w1 = wij * wz[1], w2 = wij * wz[2];
-                            loc[oj] += w0 * m;
-                            loc[oj + 1] += w0 * qjx;
-                            loc[oj + 2] += w0 * qjy;
-                            loc[oj + 3] += w0 * qjz;
-                            loc[oj + 4] += w1 * m;
-                            loc[oj + 5] += w1 * (qjx + sz0);
-                            loc[oj + 6] += w1 * (qjy + sz1);
-                            loc[oj + 7] += w1 * (qjz + sz2);
-                            loc[oj + 8] += w2 * m;
-                            loc[oj + 9] += w2 * (qjx + 2 * sz0);
-                            loc[oj + 10] += w2 * (qjy + 2 * sz1);
-                            loc[oj + 11] += w2 * (qjz + 2 * sz2);
-                        }
-                    }
-                } else {
-                    for (int i = 0; i < s; i++) {
-                        for (int j = 0; j < s; j++) {
-                            double wij = wx[i] * wy[j];
-                            int oj = base + 4 * ((i * LOCAL + j) * LOCAL);
-                            for (int l = 0; l < s; l++) {
-                                double w = wij * wz[l];
-                                int q = oj + 4 * l;
-                                loc[q] += w * m;
-                                loc[q + 1] += w * (q0x + i * sx0 + j * sy0 + l * sz0);
-                                loc[q + 2] += w * (q0y + i * sx1 + j * sy1 + l * sz1);
-                                loc[q + 3] += w * (q0z + i * sx2 + j * sy2 + l * sz2);
-                            }
-                        }
-                    }
-                }
-                if (gripOf != null && gripOf[p] >= 0) {
-                    markGrip(r, (int) gripOf[p], bx - baseX, by - baseY, bz - baseZ, s);
-                }
+            if (separation == null) {
+                scatterRange(sc, r, h, tau, runStart, runStart, runEnd);
+            } else {
+                separation.scatterRun(sc, r, h, tau, runStart, runEnd);
             }
             runStart = runEnd;
         }
-        flushLocal(loc, r, s);
+        if (separation == null) {
+            flushLocal(loc, r, s);
+        }
+    }
+
+    /**
+     * Adds the mass, APIC momentum and MLS force of particles [from, to) of block r to the block-local buffer.
+     *
+     * @param tau     Kirchhoff stress of particles from tauFrom on, 9 per particle
+     * @param tauFrom particle whose stress sits at the start of tau
+     */
+    void scatterRange(Scratch sc, int r, double h, double[] tau, int tauFrom, int from, int to) {
+        long key = blockKeys[r];
+        int baseX = localOrigin(SparseGrid.keyX(key)), baseY = localOrigin(SparseGrid.keyY(key));
+        int baseZ = localOrigin(SparseGrid.keyZ(key));
+        int s = kernel.support();
+        double dinv = kernel.inverseInertia(dx);
+        double[] x = store.position();
+        double[] v = store.velocity();
+        double[] cm = store.affine();
+        double[] mass = store.mass();
+        double[] vol = store.volume();
+        double[] gripOf = scene.grips().isEmpty() ? null : store.channel(GRIP_CHANNEL);
+        double[] loc = sc.local;
+        double[] wx = sc.wx, wy = sc.wy, wz = sc.wz;
+        for (int p = from; p < to; p++) {
+            double xi = (x[3 * p] - ox) * invDx, yi = (x[3 * p + 1] - oy) * invDx;
+            double zi = (x[3 * p + 2] - oz) * invDx;
+            int bx = kernel.base(xi), by = kernel.base(yi), bz = kernel.base(zi);
+            double fx = xi - bx, fy = yi - by, fz = zi - bz;
+            kernel.weights(fx, wx, 0);
+            kernel.weights(fy, wy, 0);
+            kernel.weights(fz, wz, 0);
+            double m = mass[p];
+            int o = 9 * (p - tauFrom);
+            double k = -h * vol[p] * dinv;
+            int c9 = 9 * p;
+            double a00 = m * cm[c9] + k * tau[o], a01 = m * cm[c9 + 1] + k * tau[o + 1];
+            double a02 = m * cm[c9 + 2] + k * tau[o + 2];
+            double a10 = m * cm[c9 + 3] + k * tau[o + 3], a11 = m * cm[c9 + 4] + k * tau[o + 4];
+            double a12 = m * cm[c9 + 5] + k * tau[o + 5];
+            double a20 = m * cm[c9 + 6] + k * tau[o + 6], a21 = m * cm[c9 + 7] + k * tau[o + 7];
+            double a22 = m * cm[c9 + 8] + k * tau[o + 8];
+            // Momentum at offset d from the particle is m v + A d; write d = (node - f) dx and expand.
+            double ex = -fx * dx, ey = -fy * dx, ez = -fz * dx;
+            double q0x = m * v[3 * p] + a00 * ex + a01 * ey + a02 * ez;
+            double q0y = m * v[3 * p + 1] + a10 * ex + a11 * ey + a12 * ez;
+            double q0z = m * v[3 * p + 2] + a20 * ex + a21 * ey + a22 * ez;
+            double sx0 = a00 * dx, sx1 = a10 * dx, sx2 = a20 * dx;
+            double sy0 = a01 * dx, sy1 = a11 * dx, sy2 = a21 * dx;
+            double sz0 = a02 * dx, sz1 = a12 * dx, sz2 = a22 * dx;
+            int base = 4 * (((bx - baseX) * LOCAL + (by - baseY)) * LOCAL + (bz - baseZ));
+            if (s == 3) {
+                // Quadratic stencil with constant trip counts, so the compiler unrolls all 27 nodes.
+                for (int i = 0; i < 3; i++) {
+                    double wi = wx[i];
+                    double qix = q0x + i * sx0, qiy = q0y + i * sx1, qiz = q0z + i * sx2;
+                    int oi = base + i * (4 * LOCAL * LOCAL);
+                    for (int j = 0; j < 3; j++) {
+                        double wij = wi * wy[j];
+                        double qjx = qix + j * sy0, qjy = qiy + j * sy1, qjz = qiz + j * sy2;
+                        int oj = oi + j * (4 * LOCAL);
+                        double w0 = wij * wz[0], w1 = wij * wz[1], w2 = wij * wz[2];
+                        loc[oj] += w0 * m;
+                        loc[oj + 1] += w0 * qjx;
+                        loc[oj + 2] += w0 * qjy;
+                        loc[oj + 3] += w0 * qjz;
+                        loc[oj + 4] += w1 * m;
+                        loc[oj + 5] += w1 * (qjx + sz0);
+                        loc[oj + 6] += w1 * (qjy + sz1);
+                        loc[oj + 7] += w1 * (qjz + sz2);
+                        loc[oj + 8] += w2 * m;
+                        loc[oj + 9] += w2 * (qjx + 2 * sz0);
+                        loc[oj + 10] += w2 * (qjy + 2 * sz1);
+                        loc[oj + 11] += w2 * (qjz + 2 * sz2);
+                    }
+                }
+            } else {
+                for (int i = 0; i < s; i++) {
+                    for (int j = 0; j < s; j++) {
+                        double wij = wx[i] * wy[j];
+                        int oj = base + 4 * ((i * LOCAL + j) * LOCAL);
+                        for (int l = 0; l < s; l++) {
+                            double w = wij * wz[l];
+                            int q = oj + 4 * l;
+                            loc[q] += w * m;
+                            loc[q + 1] += w * (q0x + i * sx0 + j * sy0 + l * sz0);
+                            loc[q + 2] += w * (q0y + i * sx1 + j * sy1 + l * sz1);
+                            loc[q + 3] += w * (q0z + i * sx2 + j * sy2 + l * sz2);
+                        }
+                    }
+                }
+            }
+            if (gripOf != null && gripOf[p] >= 0) {
+                markGrip(r, (int) gripOf[p], bx - baseX, by - baseY, bz - baseZ, s);
+            }
+        }
     }
 
     /** Zeroes the part of the block-local buffer that block r's stencils reach. */
@@ -933,7 +964,6 @@ public final class Simulation implements SimulationView, AutoCloseable {
 
     private void updateGrid(double h) {
         int gb = grid.blockCount();
-        int[] coords = grid.blockCoords();
         double[] g = scene.gravity();
         double gx = g[0] * h, gy = g[1] * h, gz = g[2] * h;
         double decay = Math.exp(-scene.damping() * h);
@@ -957,42 +987,13 @@ public final class Simulation implements SimulationView, AutoCloseable {
         }
         workers.forEach(tasks, (w, t) -> {
             Scratch sc = scratch[w];
-            double work = 0;
-            double[] gm = grid.mass();
-            double[] gv = grid.momentum();
-            int[] gg = grid.grip();
-            double[] nrm = sc.normal;
-            int b1 = Math.min(gb, (t + 1) * GRID_TASK_BLOCKS);
-            for (int b = t * GRID_TASK_BLOCKS; b < b1; b++) {
-                int bx = 4 * coords[3 * b], by = 4 * coords[3 * b + 1], bz = 4 * coords[3 * b + 2];
-                for (int l = 0; l < SparseGrid.NODES_PER_BLOCK; l++) {
-                    int node = (b << 6) + l;
-                    double m = gm[node];
-                    int n3 = 3 * node;
-                    if (m <= 0) {
-                        gv[n3] = 0;
-                        gv[n3 + 1] = 0;
-                        gv[n3 + 2] = 0;
-                        continue;
-                    }
-                    double inv = 1.0 / m;
-                    gv[n3] = (gv[n3] * inv + gx) * decay;
-                    gv[n3 + 1] = (gv[n3 + 1] * inv + gy) * decay;
-                    gv[n3 + 2] = (gv[n3 + 2] * inv + gz) * decay;
-                    double px = ox + (bx + (l >> 4)) * dx;
-                    double py = oy + (by + ((l >> 2) & 3)) * dx;
-                    double pz = oz + (bz + (l & 3)) * dx;
-                    int grip = gg[node];
-                    if (grip != Integer.MAX_VALUE) {
-                        double vx0 = gv[n3], vy0 = gv[n3 + 1], vz0 = gv[n3 + 2];
-                        frameVelocity(grips.get(grip).motion(), gripPose, 12 * grip, px, py, pz, gv, n3);
-                        // Work of the grip: its impulse on the node times the velocity it imposes.
-                        work += m * ((gv[n3] - vx0) * gv[n3] + (gv[n3 + 1] - vy0) * gv[n3 + 1]
-                                + (gv[n3 + 2] - vz0) * gv[n3 + 2]);
-                    } else {
-                        work += m * applyWallsAndObstacles(walls, wallAt, tol, obstacles, px, py, pz, gv, n3, nrm);
-                    }
-                }
+            int b0 = t * GRID_TASK_BLOCKS, b1 = Math.min(gb, b0 + GRID_TASK_BLOCKS);
+            double work = updateNodes(sc, b0, b1, grid.mass(), grid.momentum(), gx, gy, gz, decay, walls, wallAt,
+                    tol);
+            if (separation != null) {
+                work += updateNodes(sc, b0, b1, separation.massB(), separation.momentumB(), gx, gy, gz, decay,
+                        walls, wallAt, tol);
+                separation.contact(b0, b1);
             }
             boundaryPartial[t] = work;
         });
@@ -1001,6 +1002,56 @@ public final class Simulation implements SimulationView, AutoCloseable {
             sum += boundaryPartial[t];
         }
         boundaryWork += sum;
+    }
+
+    /**
+     * Turns the momenta of one velocity field on grid blocks [b0, b1) into velocities, adds gravity and damping,
+     * then applies grips, walls and obstacles.
+     *
+     * @param gm node masses of the field, kg
+     * @param gv node momenta of the field, kg m/s, overwritten with velocities, m/s
+     * @return work done by grips and moving obstacles on these nodes, J
+     */
+    private double updateNodes(Scratch sc, int b0, int b1, double[] gm, double[] gv, double gx, double gy, double gz,
+                               double decay, List<Contact> walls, double[] wallAt, double tol) {
+        int[] coords = grid.blockCoords();
+        List<Obstacle> obstacles = scene.obstacles();
+        List<Grip> grips = scene.grips();
+        double work = 0;
+        int[] gg = grid.grip();
+        double[] nrm = sc.normal;
+        for (int b = b0; b < b1; b++) {
+            int bx = 4 * coords[3 * b], by = 4 * coords[3 * b + 1], bz = 4 * coords[3 * b + 2];
+            for (int l = 0; l < SparseGrid.NODES_PER_BLOCK; l++) {
+                int node = (b << 6) + l;
+                double m = gm[node];
+                int n3 = 3 * node;
+                if (m <= 0) {
+                    gv[n3] = 0;
+                    gv[n3 + 1] = 0;
+                    gv[n3 + 2] = 0;
+                    continue;
+                }
+                double inv = 1.0 / m;
+                gv[n3] = (gv[n3] * inv + gx) * decay;
+                gv[n3 + 1] = (gv[n3 + 1] * inv + gy) * decay;
+                gv[n3 + 2] = (gv[n3 + 2] * inv + gz) * decay;
+                double px = ox + (bx + (l >> 4)) * dx;
+                double py = oy + (by + ((l >> 2) & 3)) * dx;
+                double pz = oz + (bz + (l & 3)) * dx;
+                int grip = gg[node];
+                if (grip != Integer.MAX_VALUE) {
+                    double vx0 = gv[n3], vy0 = gv[n3 + 1], vz0 = gv[n3 + 2];
+                    frameVelocity(grips.get(grip).motion(), gripPose, 12 * grip, px, py, pz, gv, n3);
+                    // Work of the grip: its impulse on the node times the velocity it imposes.
+                    work += m * ((gv[n3] - vx0) * gv[n3] + (gv[n3 + 1] - vy0) * gv[n3 + 1]
+                            + (gv[n3 + 2] - vz0) * gv[n3 + 2]);
+                } else {
+                    work += m * applyWallsAndObstacles(walls, wallAt, tol, obstacles, px, py, pz, gv, n3, nrm);
+                }
+            }
+        }
+        return work;
     }
 
     /** @return work per unit node mass done by moving obstacles: velocity change . obstacle velocity, m^2/s^2 */
@@ -1072,6 +1123,46 @@ public final class Simulation implements SimulationView, AutoCloseable {
     private void gatherBlock(Scratch sc, int r, double h) {
         int start = blockStart[r];
         int end = blockStart[r + 1];
+        int[] acc = sc.gatherRange;
+        acc[0] = LOCAL;
+        acc[1] = LOCAL;
+        acc[2] = LOCAL;
+        acc[3] = -1;
+        acc[4] = -1;
+        acc[5] = -1;
+        acc[6] = start;
+        acc[7] = -1;
+        sc.gatherFastest = 0;
+        if (separation == null) {
+            loadLocal(sc.local, r, kernel.support());
+            gatherRange(sc, r, h, start, end);
+        } else {
+            separation.gatherBlock(sc, r, h);
+        }
+        int[] body = store.body();
+        for (int runStart = start; anyProjection && runStart < end; ) {
+            int b = body[runStart];
+            int runEnd = runStart + 1;
+            while (runEnd < end && body[runEnd] == b) {
+                runEnd++;
+            }
+            if (laws[b].projectsDeformation()) {
+                laws[b].projectDeformation(store, runStart, runEnd);
+            }
+            runStart = runEnd;
+        }
+        blockMaxSpeed[r] = Math.sqrt(sc.gatherFastest);
+        blockFastest[r] = acc[6];
+        blockBad[r] = acc[7];
+        blockLeft[r] = !setRange(r, acc[0], acc[1], acc[2], acc[3], acc[4], acc[5]);
+    }
+
+    /**
+     * Gathers velocity and affine matrix of particles [from, to) of block r from the block-local buffer, moves
+     * them and updates F. Folds their stencil range, speed and health into the worker's running block totals
+     * ({@link Scratch#gatherRange}, {@link Scratch#gatherFastest}).
+     */
+    void gatherRange(Scratch sc, int r, double h, int from, int to) {
         long key = blockKeys[r];
         int baseX = localOrigin(SparseGrid.keyX(key)), baseY = localOrigin(SparseGrid.keyY(key));
         int baseZ = localOrigin(SparseGrid.keyZ(key));
@@ -1083,12 +1174,12 @@ public final class Simulation implements SimulationView, AutoCloseable {
         double[] f = store.deformation();
         double[] wx = sc.wx, wy = sc.wy, wz = sc.wz;
         double[] loc = sc.local;
-        loadLocal(loc, r, s);
-        int loX = LOCAL, loY = LOCAL, loZ = LOCAL, hiX = -1, hiY = -1, hiZ = -1;
-        double fastest = 0;
-        int fastestP = start;
-        int bad = -1;
-        for (int p = start; p < end; p++) {
+        int[] acc = sc.gatherRange;
+        int loX = acc[0], loY = acc[1], loZ = acc[2], hiX = acc[3], hiY = acc[4], hiZ = acc[5];
+        double fastest = sc.gatherFastest;
+        int fastestP = acc[6];
+        int bad = acc[7];
+        for (int p = from; p < to; p++) {
             double xi = (x[3 * p] - ox) * invDx, yi = (x[3 * p + 1] - oy) * invDx, zi = (x[3 * p + 2] - oz) * invDx;
             int bx = kernel.base(xi), by = kernel.base(yi), bz = kernel.base(zi);
             double fx = xi - bx, fy = yi - by, fz = zi - bz;
@@ -1212,22 +1303,15 @@ public final class Simulation implements SimulationView, AutoCloseable {
                 fastestP = p;
             }
         }
-        int[] body = store.body();
-        for (int runStart = start; anyProjection && runStart < end; ) {
-            int b = body[runStart];
-            int runEnd = runStart + 1;
-            while (runEnd < end && body[runEnd] == b) {
-                runEnd++;
-            }
-            if (laws[b].projectsDeformation()) {
-                laws[b].projectDeformation(store, runStart, runEnd);
-            }
-            runStart = runEnd;
-        }
-        blockMaxSpeed[r] = Math.sqrt(fastest);
-        blockFastest[r] = fastestP;
-        blockBad[r] = bad;
-        blockLeft[r] = !setRange(r, loX, loY, loZ, hiX, hiY, hiZ);
+        acc[0] = loX;
+        acc[1] = loY;
+        acc[2] = loZ;
+        acc[3] = hiX;
+        acc[4] = hiY;
+        acc[5] = hiZ;
+        acc[6] = fastestP;
+        acc[7] = bad;
+        sc.gatherFastest = fastest;
     }
 
     /** Copies the grid velocities a block's stencils reach into the block-local buffer. */
@@ -1536,6 +1620,10 @@ public final class Simulation implements SimulationView, AutoCloseable {
         final double[] gz = new double[64];
         // Padding keeps the small arrays of different workers off each other's cache lines.
         final double[] pad = new double[16];
+        /** Running totals of a block's gather: lowest and highest stencil base (x, y, z), fastest, first bad. */
+        final int[] gatherRange = new int[8];
+        /** Running largest squared particle speed of a block's gather, m^2/s^2. */
+        double gatherFastest;
         private double[] tau = new double[9 * 1024];
         private double[] kept = new double[0];
         private double[] psiDegraded = new double[0];

@@ -61,8 +61,9 @@ public final class SceneReader {
     static final List<String> TOP_KEYS = List.of("format", "description", "domain", "gravity", "walls", "run",
             "output", "bodies", "obstacles", "grips");
     static final List<String> RUN_KEYS = List.of("cellSize", "frameRate", "cfl", "damping", "threads",
-            "fixedTimeStep", "maxTimeStep", "speedLimit", "kernel", "phaseFieldSolver");
+            "fixedTimeStep", "maxTimeStep", "speedLimit", "kernel", "phaseFieldSolver", "separation");
     static final List<String> SOLVER_KEYS = List.of("tolerance", "maxIterations");
+    static final List<String> SEPARATION_KEYS = List.of("damageThreshold", "friction");
     static final List<String> OUTPUT_KEYS = List.of("frames", "formats", "channels", "checkpointEvery",
             "keepCheckpoints", "diagnosticsEvery");
     static final List<String> DOMAIN_KEYS = List.of("min", "max");
@@ -381,6 +382,16 @@ public final class SceneReader {
                 Long it = s.integer("maxIterations", 200L, 1, 100_000, "iteration cap per step");
                 if (tol != null && it != null) {
                     b.phaseFieldSolver(tol, it.intValue());
+                }
+            }
+            Obj sep = f.object("separation", false, "{\"damageThreshold\": ..., \"friction\": ...}");
+            if (sep != null) {
+                Fields s = new Fields(problems, sep, "run.separation", SEPARATION_KEYS);
+                Double threshold = s.number("damageThreshold", null, new Range(0, true, 1, false, ""),
+                        "damage from which grid nodes carry two velocity fields");
+                Double mu = s.number("friction", 0.0, Range.nonNegative(""), "Coulomb coefficient between the fields");
+                if (threshold != null && mu != null) {
+                    b.separation(threshold, mu);
                 }
             }
         }

@@ -220,6 +220,9 @@ public final class SceneWriter {
         m.put("kernel", s.kernel() == Kernel.CUBIC ? "cubic" : "quadratic");
         m.put("phaseFieldSolver", map("tolerance", s.phaseFieldTolerance(),
                 "maxIterations", (long) s.phaseFieldMaxIterations()));
+        if (s.separates()) {
+            m.put("separation", map("damageThreshold", s.separationThreshold(), "friction", s.separationFriction()));
+        }
         return m;
     }
 
