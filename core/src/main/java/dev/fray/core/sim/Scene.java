@@ -385,8 +385,13 @@ public final class Scene {
         }
 
         /**
-         * @param relativeTolerance relative residual at which the phase-field solve stops, (0, 1)
-         * @param maxIterations     iteration cap per step, 1 to 100000
+         * Settings of the phase-field solve (conjugate gradients, warm-started each step). It stops when the residual
+         * is below the tolerance relative to the larger of the right-hand side and the first residual, or when the
+         * largest Jacobi correction of the damage field is below the same number in damage units (damage runs
+         * from 0 to 1), whichever comes first, or at the iteration cap.
+         *
+         * @param relativeTolerance tolerance, (0, 1); default 1e-6
+         * @param maxIterations     iteration cap per step, 1 to 100000; default 200
          * @return this
          */
         public Builder phaseFieldSolver(double relativeTolerance, int maxIterations) {
