@@ -24,7 +24,7 @@ import org.openjdk.jmh.annotations.Warmup;
  * within the first 1200 steps at 100k particles).
  *
  * <p>HOW TO RUN: {@code mvn -B -q package -DskipTests && java -cp examples/target/fray.jar org.openjdk.jmh.Main
- * DropBenchmark -p particles=100000 -p threads=2}
+ * DropBenchmark -p particles=100000 -p threads=2 -p scene=drop}
  */
 @State(Scope.Thread)
 @BenchmarkMode(Mode.AverageTime)
