@@ -106,7 +106,9 @@ public interface DamageModel {
 
     /**
      * Receives the solved field interpolated at each particle; the model enforces irreversibility and bounds and
-     * writes its {@link #DAMAGE} channel.
+     * writes its {@link #DAMAGE} channel. The solver skips the solve, and this call, in steps where no particle
+     * of a phase-field body is damaged yet and every b / a is below a thousandth of the solver tolerance (the
+     * field would stay below that everywhere).
      *
      * @param state  particle data; the model's channels may be written in [from, to)
      * @param from   first particle, inclusive

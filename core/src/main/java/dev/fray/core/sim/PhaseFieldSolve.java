@@ -48,6 +48,14 @@ final class PhaseFieldSolve {
     private static final int L = Simulation.LOCAL;
     /** Per particle block: smallest and largest local stencil base of its phase-field particles (x, y, z). */
     private int[] range = new int[0];
+    /** Per particle block: largest b / a of its phase-field particles, or +infinity if one is already damaged. */
+    private double[] blockBound = new double[0];
+    /**
+     * The solve is skipped while the field it would produce is below this fraction of the tolerance everywhere:
+     * with no damage yet, the solution is bounded by the largest b / a (maximum principle of the reaction-diffusion
+     * equation), so an intact body costs no grid solve.
+     */
+    private static final double SKIP_FRACTION = 1e-3;
 
     PhaseFieldSolve(Simulation sim) {
         this.sim = sim;
@@ -96,16 +104,29 @@ final class PhaseFieldSolve {
         });
         if (range.length < 6 * sim.blockCount) {
             range = new int[6 * Math.max(sim.blockCount, range.length / 3)];
+            blockBound = new double[range.length / 6];
         }
+        double[] damage = store.channel(DamageModel.DAMAGE);
         // Coefficients per particle of phase-field bodies, and the node range each block's particles reach.
         sim.workers.forEach(sim.blockCount, (w, blk) -> {
             int[] rg = range;
             rg[6 * blk] = rg[6 * blk + 1] = rg[6 * blk + 2] = L;
             rg[6 * blk + 3] = rg[6 * blk + 4] = rg[6 * blk + 5] = -1;
+            blockBound[blk] = 0;
             forRuns(blk, (from, to, model) -> {
                 double[] out = sim.scratch[w].work(C * (to - from));
                 model.phaseFieldCoefficients(store, from, to, h, out);
                 System.arraycopy(out, 0, coef, C * from, C * (to - from));
+                double bound = blockBound[blk];
+                for (int p = from; p < to; p++) {
+                    double a = coef[C * p], b = coef[C * p + 1];
+                    // Written so that NaN, a damaged particle or a non-positive reaction force the solve.
+                    double q = damage[p] == 0 && a > 0 ? Math.abs(b) / a : Double.POSITIVE_INFINITY;
+                    if (!(q <= bound)) {
+                        bound = Double.isNaN(q) ? Double.POSITIVE_INFINITY : q;
+                    }
+                }
+                blockBound[blk] = bound;
                 int[] lb = sim.scratch[w].node;
                 for (int p = from; p < to; p++) {
                     localBase(blk, p, lb);
@@ -116,9 +137,17 @@ final class PhaseFieldSolve {
                 }
             });
         });
+        double bound = 0;
+        for (int blk = 0; blk < sim.blockCount; blk++) {
+            bound = Math.max(bound, blockBound[blk]);
+        }
+        if (bound <= SKIP_FRACTION * sim.scene.phaseFieldTolerance()) {
+            lastIterations = 0;
+            lastResidual = 0;
+            return;
+        }
         // Assembly: source, the diagonals of the reaction and diffusion operators, and the warm start, summed per
         // block in its local buffer and then added to the grid.
-        double[] damage = store.channel(DamageModel.DAMAGE);
         double[] vol = store.volume();
         int s3 = sim.kernel.support();
         scatterPhases((w, blk) -> {
