@@ -1,6 +1,5 @@
 package dev.fray.io.cache;
 
-import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.particles.ChannelSpec;
 import dev.fray.core.particles.ParticleStore;
@@ -14,8 +13,6 @@ import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
-import java.util.ArrayList;
-import java.util.HashSet;
 import java.util.List;
 import java.util.Set;
 
@@ -33,19 +30,14 @@ import java.util.Set;
  * <p>Immutable and thread-safe; each call allocates its own copy of the exported channels.
  */
 public final class PlyParticleWriter {
-    /** Channels that are always written (as x y z and vx vy vz), so they cannot be chosen again. */
-    private static final Set<String> FIXED = Set.of(ParticleStore.POSITION, ParticleStore.VELOCITY);
-    /** Built-in channels of every simulation; the default export leaves them out. */
-    private static final Set<String> BUILT_IN = Set.of(ParticleStore.POSITION, ParticleStore.VELOCITY,
-            ParticleStore.AFFINE, ParticleStore.DEFORMATION, ParticleStore.MASS, ParticleStore.VOLUME);
+    /** Names this writer uses for its own output, which channels must not take. */
+    private static final Set<String> RESERVED = Set.of();
     private static final int CHUNK_BYTES = 1 << 16;
 
-    private final List<String> channels;
-    private final boolean pluginChannels;
+    private final ChannelSelection selection;
 
-    private PlyParticleWriter(List<String> channels, boolean pluginChannels) {
-        this.channels = channels;
-        this.pluginChannels = pluginChannels;
+    private PlyParticleWriter(ChannelSelection selection) {
+        this.selection = selection;
     }
 
     /**
@@ -56,7 +48,7 @@ public final class PlyParticleWriter {
      * @return the writer
      */
     public static PlyParticleWriter withPluginChannels() {
-        return new PlyParticleWriter(List.of(), true);
+        return new PlyParticleWriter(ChannelSelection.plugins("PLY", RESERVED));
     }
 
     /**
@@ -68,24 +60,8 @@ public final class PlyParticleWriter {
      *         for a null name
      */
     public static PlyParticleWriter withChannels(List<String> channels) {
-        if (channels == null) {
-            throw new InvalidInputException(FrayMessage.MISSING, "PLY channel list");
-        }
-        Set<String> seen = new HashSet<>();
-        for (String c : channels) {
-            if (c == null) {
-                throw new InvalidInputException(FrayMessage.MISSING, "PLY channel name");
-            }
-            if (FIXED.contains(c)) {
-                throw new InvalidInputException(FrayMessage.INCONSISTENT, "PLY channel \"" + c + "\"",
-                        "always written as x y z / vx vy vz; do not list it");
-            }
-            if (!seen.add(c)) {
-                throw new InvalidInputException(FrayMessage.INCONSISTENT, "PLY channel \"" + c + "\"",
-                        "listed twice");
-            }
-        }
-        return new PlyParticleWriter(List.copyOf(channels), false);
+        return new PlyParticleWriter(ChannelSelection.of("PLY", RESERVED, channels,
+                "always written as x y z / vx vy vz; do not list it"));
     }
 
     /**
@@ -94,19 +70,7 @@ public final class PlyParticleWriter {
      * @throws InvalidInputException with key UNKNOWN_NAME if an explicitly chosen channel does not exist
      */
     public List<String> channelsFor(ParticleView view) {
-        if (!pluginChannels) {
-            for (String c : channels) {
-                view.spec(c); // throws, naming the channel and the known ones
-            }
-            return channels;
-        }
-        List<String> out = new ArrayList<>();
-        for (String c : view.channelNames()) {
-            if (!BUILT_IN.contains(c)) {
-                out.add(c);
-            }
-        }
-        return out;
+        return selection.resolve(view);
     }
 
     /**

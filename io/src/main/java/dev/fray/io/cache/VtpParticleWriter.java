@@ -1,8 +1,6 @@
 package dev.fray.io.cache;
 
-import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
-import dev.fray.core.particles.ChannelSpec;
 import dev.fray.core.particles.ParticleStore;
 import dev.fray.core.sim.ParticleView;
 import dev.fray.core.sim.SimulationView;
@@ -15,7 +13,6 @@ import java.nio.ByteOrder;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.HashSet;
 import java.util.List;
 import java.util.Locale;
 import java.util.Set;
@@ -41,21 +38,14 @@ import java.util.Set;
  * <p>Immutable and thread-safe; each call allocates one array of the widest exported channel.
  */
 public final class VtpParticleWriter {
-    /** Channels that are always written (as Points and velocity), so they cannot be chosen again. */
-    private static final Set<String> FIXED = Set.of(ParticleStore.POSITION, ParticleStore.VELOCITY);
-    /** PointData array names used by this writer itself. */
+    /** Names this writer uses for its own output, which channels must not take. */
     private static final Set<String> RESERVED = Set.of("body", "id");
-    /** Built-in channels of every simulation; the default export leaves them out. */
-    private static final Set<String> BUILT_IN = Set.of(ParticleStore.POSITION, ParticleStore.VELOCITY,
-            ParticleStore.AFFINE, ParticleStore.DEFORMATION, ParticleStore.MASS, ParticleStore.VOLUME);
     private static final int CHUNK_BYTES = 1 << 16;
 
-    private final List<String> channels;
-    private final boolean pluginChannels;
+    private final ChannelSelection selection;
 
-    private VtpParticleWriter(List<String> channels, boolean pluginChannels) {
-        this.channels = channels;
-        this.pluginChannels = pluginChannels;
+    private VtpParticleWriter(ChannelSelection selection) {
+        this.selection = selection;
     }
 
     /**
@@ -65,7 +55,7 @@ public final class VtpParticleWriter {
      * @return the writer
      */
     public static VtpParticleWriter withPluginChannels() {
-        return new VtpParticleWriter(List.of(), true);
+        return new VtpParticleWriter(ChannelSelection.plugins("VTP", RESERVED));
     }
 
     /**
@@ -76,24 +66,8 @@ public final class VtpParticleWriter {
      * @throws InvalidInputException INCONSISTENT for a duplicate or reserved name, MISSING for null
      */
     public static VtpParticleWriter withChannels(List<String> channels) {
-        if (channels == null) {
-            throw new InvalidInputException(FrayMessage.MISSING, "VTP channel list");
-        }
-        Set<String> seen = new HashSet<>();
-        for (String c : channels) {
-            if (c == null) {
-                throw new InvalidInputException(FrayMessage.MISSING, "VTP channel name");
-            }
-            if (FIXED.contains(c) || RESERVED.contains(c)) {
-                throw new InvalidInputException(FrayMessage.INCONSISTENT, "VTP channel \"" + c + "\"",
-                        "always written (Points, velocity, body, id); do not list it");
-            }
-            if (!seen.add(c)) {
-                throw new InvalidInputException(FrayMessage.INCONSISTENT, "VTP channel \"" + c + "\"",
-                        "listed twice");
-            }
-        }
-        return new VtpParticleWriter(List.copyOf(channels), false);
+        return new VtpParticleWriter(ChannelSelection.of("VTP", RESERVED, channels,
+                "always written (Points, velocity, body, id); do not list it"));
     }
 
     /**
@@ -103,23 +77,7 @@ public final class VtpParticleWriter {
      *         channel is named "body" or "id"
      */
     public List<String> channelsFor(ParticleView view) {
-        if (!pluginChannels) {
-            for (String c : channels) {
-                view.spec(c); // throws, naming the channel and the known ones
-            }
-            return channels;
-        }
-        List<String> out = new ArrayList<>();
-        for (String c : view.channelNames()) {
-            if (!BUILT_IN.contains(c)) {
-                if (RESERVED.contains(c)) {
-                    throw new InvalidInputException(FrayMessage.INCONSISTENT, "channel \"" + c + "\"",
-                            "clashes with the VTP array of the same name; choose the channels explicitly");
-                }
-                out.add(c);
-            }
-        }
-        return out;
+        return selection.resolve(view);
     }
 
     /**
@@ -291,6 +249,6 @@ public final class VtpParticleWriter {
 
     @Override
     public String toString() {
-        return String.format(Locale.ROOT, "VtpParticleWriter[%s]", pluginChannels ? "plugin channels" : channels);
+        return String.format(Locale.ROOT, "VtpParticleWriter[%s]", selection);
     }
 }
