@@ -43,6 +43,9 @@ final class PhaseFieldSolve {
     private final double[][] sums;
     /** Per worker: block-local node buffer, {@link #FIELDS} values per node of the LOCAL^3 block neighbourhood. */
     private final double[][] local;
+    /** Per worker: the nodes a block reaches, as local buffer indices and grid nodes (see nodesOf). */
+    private final int[][] localIndex;
+    private final int[][] gridNode;
     /** Values per node in the local buffer: the six assembled fields, or a gathered and a scattered vector. */
     private static final int FIELDS = 6;
     private static final int L = Simulation.LOCAL;
@@ -61,6 +64,8 @@ final class PhaseFieldSolve {
         this.sim = sim;
         this.sums = new double[sim.workers.threads()][3];
         this.local = new double[sim.workers.threads()][FIELDS * L * L * L];
+        this.localIndex = new int[sim.workers.threads()][L * L * L];
+        this.gridNode = new int[sim.workers.threads()][L * L * L];
     }
 
     int lastIterations() {
@@ -190,16 +195,16 @@ final class PhaseFieldSolve {
                     }
                 }
             });
-            double[] gr = reaction, grd = reactionDiag, gs = source, gw = weight, gx0 = x, gd = diag;
-            forNodes(blk, (q, node) -> {
-                int f = FIELDS * q;
-                gr[node] += loc[f];
-                grd[node] += loc[f + 1];
-                gs[node] += loc[f + 2];
-                gw[node] += loc[f + 3];
-                gx0[node] += loc[f + 4];
-                gd[node] += loc[f + 5];
-            });
+            int[] li = localIndex[w], gn = gridNode[w];
+            for (int k = 0, count = nodesOf(blk, li, gn); k < count; k++) {
+                int f = FIELDS * li[k], node = gn[k];
+                reaction[node] += loc[f];
+                reactionDiag[node] += loc[f + 1];
+                source[node] += loc[f + 2];
+                weight[node] += loc[f + 3];
+                x[node] += loc[f + 4];
+                diag[node] += loc[f + 5];
+            }
         });
         // Initial residual r = b - A x and the first search direction.
         nodeTasks(gridTasks, nodes, (a, b) -> {
@@ -296,7 +301,10 @@ final class PhaseFieldSolve {
             Simulation.Scratch sc = sim.scratch[w];
             double[] loc = local[w];
             double[] xs = x;
-            forNodes(blk, (q, node) -> loc[q] = xs[node]);
+            int[] li = localIndex[w], gn = gridNode[w];
+            for (int k = 0, count = nodesOf(blk, li, gn); k < count; k++) {
+                loc[li[k]] = xs[gn[k]];
+            }
             forRuns(blk, (from, to, model) -> {
                 double[] out = sc.work(to - from);
                 for (int p = from; p < to; p++) {
@@ -350,7 +358,11 @@ final class PhaseFieldSolve {
             Simulation.Scratch sc = sim.scratch[w];
             double[] loc = local[w];
             clear(loc, blk, 2);
-            forNodes(blk, (q, node) -> loc[2 * q] = v[node]);
+            int[] li = localIndex[w], gn = gridNode[w];
+            int count = nodesOf(blk, li, gn);
+            for (int k = 0; k < count; k++) {
+                loc[2 * li[k]] = v[gn[k]];
+            }
             forRuns(blk, (from, to, model) -> {
                 for (int p = from; p < to; p++) {
                     int base = axisWeights(sc, blk, p);
@@ -392,7 +404,9 @@ final class PhaseFieldSolve {
                     }
                 }
             });
-            forNodes(blk, (q, node) -> out[node] += loc[2 * q + 1]);
+            for (int k = 0; k < count; k++) {
+                out[gn[k]] += loc[2 * li[k] + 1];
+            }
         });
         nodeTasks(gridTasks, nodes, (a, b) -> {
             for (int i = a; i < b; i++) {
@@ -403,22 +417,25 @@ final class PhaseFieldSolve {
 
     // ------------------------------------------------------------------ block-local helpers
 
-    @FunctionalInterface
-    private interface NodeBody {
-        void run(int localIndex, int node);
-    }
-
-    /** Calls body for every node that block blk's phase-field particles reach: local index and grid node. */
-    private void forNodes(int blk, NodeBody body) {
+    /**
+     * Lists the nodes that block blk's phase-field particles reach: local buffer index and grid node, in a fixed
+     * order.
+     *
+     * @return number of nodes listed
+     */
+    private int nodesOf(int blk, int[] localOut, int[] nodeOut) {
         int s = sim.kernel.support();
         int[] rg = range;
+        int k = 0;
         for (int i = rg[6 * blk], ie = rg[6 * blk + 3] + s; i < ie; i++) {
             for (int j = rg[6 * blk + 1], je = rg[6 * blk + 4] + s; j < je; j++) {
                 for (int l = rg[6 * blk + 2], le = rg[6 * blk + 5] + s; l < le; l++) {
-                    body.run((i * L + j) * L + l, sim.node(blk, i, j, l));
+                    localOut[k] = (i * L + j) * L + l;
+                    nodeOut[k++] = sim.node(blk, i, j, l);
                 }
             }
         }
+        return k;
     }
 
     /** Zeroes the first {@code fields} values of every node of block blk's range in the local buffer. */
