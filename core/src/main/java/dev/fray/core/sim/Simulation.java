@@ -159,6 +159,8 @@ public final class Simulation implements SimulationView, AutoCloseable {
         order = new int[n];
         ints = new int[n];
         obstaclePose = new double[12 * scene.obstacles().size()];
+        obstaclePoseEnd = new double[12 * scene.obstacles().size()];
+        obstacleBoxEnd = new double[6 * scene.obstacles().size()];
         gripPose = new double[12 * scene.grips().size()];
         double prescribed = 0;
         for (Obstacle o : scene.obstacles()) {
@@ -743,6 +745,8 @@ public final class Simulation implements SimulationView, AutoCloseable {
             blockLeft = new boolean[cap];
             colourBlocks = new int[cap];
             blockMaxSpeed = new double[cap];
+            blockTouches = new boolean[cap];
+            blockContactWork = new double[cap];
             blockBad = new int[cap];
             blockFastest = new int[cap];
         }
@@ -1082,28 +1086,146 @@ public final class Simulation implements SimulationView, AutoCloseable {
 
     private double applyObstacle(Obstacle ob, int q, double px, double py, double pz, double[] gv, int n3,
                                  double[] nrm) {
-        double[] pose = obstaclePose;
-        Motion mo = ob.motion();
-        // Node position in the obstacle's frame at time 0: x0 = c0 + R^T (x - c(t)).
-        double rx = px - pose[q + 9], ry = py - pose[q + 10], rz = pz - pose[q + 11];
-        double lx = mo.cx() + pose[q] * rx + pose[q + 3] * ry + pose[q + 6] * rz;
-        double ly = mo.cy() + pose[q + 1] * rx + pose[q + 4] * ry + pose[q + 7] * rz;
-        double lz = mo.cz() + pose[q + 2] * rx + pose[q + 5] * ry + pose[q + 8] * rz;
-        if (ob.shape().distance(lx, ly, lz) > 0) {
+        if (obstacleContactFrame(ob, obstaclePose, q, px, py, pz, nrm) > 0) {
             return 0;
         }
-        ob.shape().normal(lx, ly, lz, nrm, 3);
-        nrm[0] = pose[q] * nrm[3] + pose[q + 1] * nrm[4] + pose[q + 2] * nrm[5];
-        nrm[1] = pose[q + 3] * nrm[3] + pose[q + 4] * nrm[4] + pose[q + 5] * nrm[5];
-        nrm[2] = pose[q + 6] * nrm[3] + pose[q + 7] * nrm[4] + pose[q + 8] * nrm[5];
-        frameVelocity(mo, pose, q, px, py, pz, nrm, 6);
         double vx0 = gv[n3], vy0 = gv[n3 + 1], vz0 = gv[n3 + 2];
         ob.contact().apply(gv, n3, nrm, 0, nrm[6], nrm[7], nrm[8]);
         // Power of the contact force is its impulse times the obstacle's velocity; a still obstacle does no work.
         return (gv[n3] - vx0) * nrm[6] + (gv[n3 + 1] - vy0) * nrm[7] + (gv[n3 + 2] - vz0) * nrm[8];
     }
 
+    /**
+     * Signed distance of a point to an obstacle in the given pose; where it is not positive, also the obstacle's
+     * outward normal (world frame, nrm[0..2]) and its velocity at the point (nrm[6..8]).
+     *
+     * @return signed distance, m
+     */
+    private static double obstacleContactFrame(Obstacle ob, double[] pose, int q, double px, double py, double pz,
+                                               double[] nrm) {
+        Motion mo = ob.motion();
+        // Point in the obstacle's frame at time 0: x0 = c0 + R^T (x - c(t)).
+        double rx = px - pose[q + 9], ry = py - pose[q + 10], rz = pz - pose[q + 11];
+        double lx = mo.cx() + pose[q] * rx + pose[q + 3] * ry + pose[q + 6] * rz;
+        double ly = mo.cy() + pose[q + 1] * rx + pose[q + 4] * ry + pose[q + 7] * rz;
+        double lz = mo.cz() + pose[q + 2] * rx + pose[q + 5] * ry + pose[q + 8] * rz;
+        double dist = ob.shape().distance(lx, ly, lz);
+        if (dist > 0) {
+            return dist;
+        }
+        ob.shape().normal(lx, ly, lz, nrm, 3);
+        nrm[0] = pose[q] * nrm[3] + pose[q + 1] * nrm[4] + pose[q + 2] * nrm[5];
+        nrm[1] = pose[q + 3] * nrm[3] + pose[q + 4] * nrm[4] + pose[q + 5] * nrm[5];
+        nrm[2] = pose[q + 6] * nrm[3] + pose[q + 7] * nrm[4] + pose[q + 8] * nrm[5];
+        frameVelocity(mo, pose, q, px, py, pz, nrm, 6);
+        return dist;
+    }
+
+    /**
+     * Particle-level obstacle contact: a particle that ends the step inside an obstacle (in its end-of-step pose)
+     * is put back on the surface along the outward normal, and the obstacle's contact law is applied to its
+     * velocity as to a node's. Grid-node contact alone lets particles pass between nodes where an obstacle is
+     * thinner than a cell (a wedge's edge); the same body-collision step on particles after the grid update is
+     * published for MPM by Stomakhin et al. (SIGGRAPH 2013, section 8; from memory).
+     *
+     * @return work done on the particle by the obstacles, J
+     */
+    private double touchObstacles(double[] nrm, int p) {
+        double[] x = store.position();
+        double[] v = store.velocity();
+        List<Obstacle> obstacles = scene.obstacles();
+        double work = 0;
+        for (int o = 0; o < obstacles.size(); o++) {
+            Obstacle ob = obstacles.get(o);
+            int b = 6 * o;
+            double px = x[3 * p], py = x[3 * p + 1], pz = x[3 * p + 2];
+            if (px < obstacleBoxEnd[b] || py < obstacleBoxEnd[b + 1] || pz < obstacleBoxEnd[b + 2]
+                    || px > obstacleBoxEnd[b + 3] || py > obstacleBoxEnd[b + 4] || pz > obstacleBoxEnd[b + 5]) {
+                continue;
+            }
+            double dist = obstacleContactFrame(ob, obstaclePoseEnd, 12 * o, px, py, pz, nrm);
+            if (dist > 0 || ob.contact().type() == Contact.Type.OPEN) {
+                continue;
+            }
+            x[3 * p] = px - dist * nrm[0];
+            x[3 * p + 1] = py - dist * nrm[1];
+            x[3 * p + 2] = pz - dist * nrm[2];
+            double vx0 = v[3 * p], vy0 = v[3 * p + 1], vz0 = v[3 * p + 2];
+            ob.contact().apply(v, 3 * p, nrm, 0, nrm[6], nrm[7], nrm[8]);
+            work += store.mass()[p] * ((v[3 * p] - vx0) * nrm[6] + (v[3 * p + 1] - vy0) * nrm[7]
+                    + (v[3 * p + 2] - vz0) * nrm[8]);
+        }
+        return work;
+    }
+
+    /** Poses and world boxes of the obstacles at time t + h, and which blocks' buffers reach one. */
+    private boolean prepareParticleContact(double h) {
+        List<Obstacle> obstacles = scene.obstacles();
+        if (obstacles.isEmpty()) {
+            return false;
+        }
+        for (int i = 0; i < obstacles.size(); i++) {
+            Obstacle ob = obstacles.get(i);
+            ob.motion().pose(time + h, scratchPose);
+            System.arraycopy(scratchPose, 0, obstaclePoseEnd, 12 * i, 12);
+            worldBox(ob, scratchPose, obstacleBoxEnd, 6 * i);
+        }
+        boolean any = false;
+        double span = LOCAL * dx;
+        for (int r = 0; r < blockCount; r++) {
+            long key = blockKeys[r];
+            double x0 = ox + localOrigin(SparseGrid.keyX(key)) * dx;
+            double y0 = oy + localOrigin(SparseGrid.keyY(key)) * dx;
+            double z0 = oz + localOrigin(SparseGrid.keyZ(key)) * dx;
+            boolean touches = false;
+            for (int b = 0; b < obstacleBoxEnd.length && !touches; b += 6) {
+                touches = x0 <= obstacleBoxEnd[b + 3] && x0 + span >= obstacleBoxEnd[b]
+                        && y0 <= obstacleBoxEnd[b + 4] && y0 + span >= obstacleBoxEnd[b + 1]
+                        && z0 <= obstacleBoxEnd[b + 5] && z0 + span >= obstacleBoxEnd[b + 2];
+            }
+            blockTouches[r] = touches;
+            any |= touches;
+        }
+        return any;
+    }
+
+    /** World box of an obstacle's shape in a pose (its corners moved and boxed; infinite stays infinite). */
+    private static void worldBox(Obstacle ob, double[] pose, double[] out, int off) {
+        Bounds b = ob.shape().bounds();
+        Motion mo = ob.motion();
+        if (!b.isFinite()) {
+            for (int k = 0; k < 3; k++) {
+                out[off + k] = Double.NEGATIVE_INFINITY;
+                out[off + 3 + k] = Double.POSITIVE_INFINITY;
+            }
+            return;
+        }
+        for (int k = 0; k < 3; k++) {
+            out[off + k] = Double.POSITIVE_INFINITY;
+            out[off + 3 + k] = Double.NEGATIVE_INFINITY;
+        }
+        for (int c = 0; c < 8; c++) {
+            // x = c(t) + R (x0 - c0), with R stored so that R^T maps world to body (see obstacleContactFrame).
+            double ax = ((c & 1) == 0 ? b.minX() : b.maxX()) - mo.cx();
+            double ay = ((c & 2) == 0 ? b.minY() : b.maxY()) - mo.cy();
+            double az = ((c & 4) == 0 ? b.minZ() : b.maxZ()) - mo.cz();
+            for (int k = 0; k < 3; k++) {
+                double w = pose[9 + k] + pose[3 * k] * ax + pose[3 * k + 1] * ay + pose[3 * k + 2] * az;
+                out[off + k] = Math.min(out[off + k], w);
+                out[off + 3 + k] = Math.max(out[off + 3 + k], w);
+            }
+        }
+    }
+
     private final double[] scratchPose = new double[12];
+    /** Obstacle poses at the end of the step (12 per obstacle), for the particle contact of the gather. */
+    private final double[] obstaclePoseEnd;
+    /** World boxes (6 per obstacle) at the end of the step, m; a block whose buffer misses all skips the check. */
+    private final double[] obstacleBoxEnd;
+    private boolean[] blockTouches = new boolean[64];
+    /** Whether this step's gather checks particles against obstacles (some block reaches one). */
+    private boolean touching;
+    private double[] blockContactWork = new double[64];
     private double[] boundaryPartial = new double[64];
     private double boundaryWork;
 
@@ -1117,7 +1239,15 @@ public final class Simulation implements SimulationView, AutoCloseable {
     }
 
     private void gather(double h) {
+        touching = prepareParticleContact(h);
         workers.forEach(blockCount, (w, r) -> gatherBlock(scratch[w], r, h));
+        if (touching) {
+            double sum = 0;
+            for (int r = 0; r < blockCount; r++) {
+                sum += blockContactWork[r];
+            }
+            boundaryWork += sum;
+        }
     }
 
     private void gatherBlock(Scratch sc, int r, double h) {
@@ -1133,6 +1263,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         acc[6] = start;
         acc[7] = -1;
         sc.gatherFastest = 0;
+        sc.contactWork = 0;
         if (separation == null) {
             loadLocal(sc.local, r, kernel.support());
             gatherRange(sc, r, h, start, end);
@@ -1151,6 +1282,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
             }
             runStart = runEnd;
         }
+        blockContactWork[r] = sc.contactWork;
         blockMaxSpeed[r] = Math.sqrt(sc.gatherFastest);
         blockFastest[r] = acc[6];
         blockBad[r] = acc[7];
@@ -1179,6 +1311,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         double fastest = sc.gatherFastest;
         int fastestP = acc[6];
         int bad = acc[7];
+        boolean touch = touching && blockTouches[r];
         for (int p = from; p < to; p++) {
             double xi = (x[3 * p] - ox) * invDx, yi = (x[3 * p + 1] - oy) * invDx, zi = (x[3 * p + 2] - oz) * invDx;
             int bx = kernel.base(xi), by = kernel.base(yi), bz = kernel.base(zi);
@@ -1257,6 +1390,15 @@ public final class Simulation implements SimulationView, AutoCloseable {
             x[3 * p] = nx;
             x[3 * p + 1] = ny;
             x[3 * p + 2] = nz;
+            if (touch) {
+                sc.contactWork += touchObstacles(sc.normal, p);
+                vx = v[3 * p];
+                vy = v[3 * p + 1];
+                vz = v[3 * p + 2];
+                nx = x[3 * p];
+                ny = x[3 * p + 1];
+                nz = x[3 * p + 2];
+            }
             // Where the next step's stencil starts, to keep the block's node range and see if a sort is due.
             int sx = kernel.base((nx - ox) * invDx) - baseX;
             int sy = kernel.base((ny - oy) * invDx) - baseY;
@@ -1624,6 +1766,8 @@ public final class Simulation implements SimulationView, AutoCloseable {
         final int[] gatherRange = new int[8];
         /** Running largest squared particle speed of a block's gather, m^2/s^2. */
         double gatherFastest;
+        /** Running work of the particle contact with obstacles in a block's gather, J. */
+        double contactWork;
         private double[] tau = new double[9 * 1024];
         private double[] kept = new double[0];
         private double[] psiDegraded = new double[0];
