@@ -3,7 +3,10 @@ package dev.fray.core.boundary;
 import dev.fray.core.error.Checks;
 
 /**
- * A rigid obstacle: a shape (its pose at time 0), a contact law and a prescribed motion.
+ * A rigid obstacle: a shape (its pose at time 0), a contact law and a prescribed motion. The contact law acts on
+ * the grid nodes inside the obstacle and, after each step, on any particle that ended the step inside it: that
+ * particle is put back on the surface along the outward normal. So material does not pass through obstacles
+ * thinner than a grid cell, such as the edge of a wedge.
  *
  * @param name    name for messages and outputs
  * @param shape   solid region at time 0
