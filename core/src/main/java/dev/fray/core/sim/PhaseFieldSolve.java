@@ -171,12 +171,13 @@ final class PhaseFieldSolve {
                     double dxx = coef[c + 2], dyy = coef[c + 3], dzz = coef[c + 4];
                     double dxy = coef[c + 5], dxz = coef[c + 6], dyz = coef[c + 7];
                     double dp = damage[p];
-                    for (int i = 0; i < s3; i++) {
-                        for (int j = 0; j < s3; j++) {
+                    boolean quadratic = s3 == 3;
+                    for (int i = 0; quadratic ? i < 3 : i < s3; i++) {
+                        for (int j = 0; quadratic ? j < 3 : j < s3; j++) {
                             double wij = sc.wx[i] * sc.wy[j];
                             double gij = sc.dwx[i] * sc.wy[j], hij = sc.wx[i] * sc.dwy[j];
                             int o = FIELDS * (base + (i * L + j) * L);
-                            for (int l = 0; l < s3; l++) {
+                            for (int l = 0; quadratic ? l < 3 : l < s3; l++) {
                                 double wt = wij * sc.wz[l];
                                 double gx = gij * sc.wz[l], gy = hij * sc.wz[l], gz = wij * sc.dwz[l];
                                 double wv = wt * v;
@@ -310,11 +311,12 @@ final class PhaseFieldSolve {
                 for (int p = from; p < to; p++) {
                     int base = axisWeights(sc, blk, p);
                     double d = 0;
-                    for (int i = 0; i < s3; i++) {
-                        for (int j = 0; j < s3; j++) {
+                    boolean quadratic = s3 == 3;
+                    for (int i = 0; quadratic ? i < 3 : i < s3; i++) {
+                        for (int j = 0; quadratic ? j < 3 : j < s3; j++) {
                             double wij = sc.wx[i] * sc.wy[j];
                             int o = base + (i * L + j) * L;
-                            for (int l = 0; l < s3; l++) {
+                            for (int l = 0; quadratic ? l < 3 : l < s3; l++) {
                                 d += wij * sc.wz[l] * loc[o + l];
                             }
                         }
@@ -363,47 +365,7 @@ final class PhaseFieldSolve {
             for (int k = 0; k < count; k++) {
                 loc[2 * li[k]] = v[gn[k]];
             }
-            forRuns(blk, (from, to, model) -> {
-                for (int p = from; p < to; p++) {
-                    int base = axisWeights(sc, blk, p);
-                    double gx = 0, gy = 0, gz = 0, val = 0;
-                    for (int i = 0; i < s3; i++) {
-                        for (int j = 0; j < s3; j++) {
-                            double wij = sc.wx[i] * sc.wy[j];
-                            double gij = sc.dwx[i] * sc.wy[j], hij = sc.wx[i] * sc.dwy[j];
-                            int o = 2 * (base + (i * L + j) * L);
-                            double t0 = 0, t1 = 0;
-                            for (int l = 0; l < s3; l++) {
-                                double vi = loc[o + 2 * l];
-                                t0 += sc.wz[l] * vi;
-                                t1 += sc.dwz[l] * vi;
-                            }
-                            val += wij * t0;
-                            gx += gij * t0;
-                            gy += hij * t0;
-                            gz += wij * t1;
-                        }
-                    }
-                    int c = C * p;
-                    double vp = vol[p];
-                    double rp = CONSISTENT * vp * coef[c] * val;
-                    double fx = vp * (coef[c + 2] * gx + coef[c + 5] * gy + coef[c + 6] * gz);
-                    double fy = vp * (coef[c + 5] * gx + coef[c + 3] * gy + coef[c + 7] * gz);
-                    double fz = vp * (coef[c + 6] * gx + coef[c + 7] * gy + coef[c + 4] * gz);
-                    for (int i = 0; i < s3; i++) {
-                        for (int j = 0; j < s3; j++) {
-                            double wij = sc.wx[i] * sc.wy[j];
-                            // Per node: w rp + (dw_x w_y w_z) fx + (w_x dw_y w_z) fy + (w_x w_y dw_z) fz.
-                            double k0 = wij * rp + sc.dwx[i] * sc.wy[j] * fx + sc.wx[i] * sc.dwy[j] * fy;
-                            double k1 = wij * fz;
-                            int o = 2 * (base + (i * L + j) * L);
-                            for (int l = 0; l < s3; l++) {
-                                loc[o + 2 * l + 1] += sc.wz[l] * k0 + sc.dwz[l] * k1;
-                            }
-                        }
-                    }
-                }
-            });
+            forRuns(blk, (from, to, model) -> applyParticles(sc, loc, blk, from, to, vol, s3));
             for (int k = 0; k < count; k++) {
                 out[gn[k]] += loc[2 * li[k] + 1];
             }
@@ -413,6 +375,58 @@ final class PhaseFieldSolve {
                 out[i] = weight[i] > 0 ? out[i] + (1 - CONSISTENT) * reaction[i] * v[i] : 0;
             }
         });
+    }
+
+    /**
+     * The particle part of the operator for particles [from, to) of block blk: gathers the value and gradient of
+     * the vector in the local buffer's even slots, scatters the particle's reaction and flux to the odd slots.
+     */
+    private void applyParticles(Simulation.Scratch sc, double[] loc, int blk, int from, int to, double[] vol,
+                                int s3) {
+        double[] wx = sc.wx, wy = sc.wy, wz = sc.wz, dwx = sc.dwx, dwy = sc.dwy, dwz = sc.dwz;
+        double[] cf = coef;
+        // Constant trip counts for the quadratic stencil, so the compiler unrolls all 27 nodes; the branch is the
+        // same for every particle.
+        boolean quadratic = s3 == 3;
+        for (int p = from; p < to; p++) {
+            int base = axisWeights(sc, blk, p);
+            double gx = 0, gy = 0, gz = 0, val = 0;
+            for (int i = 0; quadratic ? i < 3 : i < s3; i++) {
+                for (int j = 0; quadratic ? j < 3 : j < s3; j++) {
+                    double wij = wx[i] * wy[j];
+                    double gij = dwx[i] * wy[j], hij = wx[i] * dwy[j];
+                    int o = 2 * (base + (i * L + j) * L);
+                    double t0 = 0, t1 = 0;
+                    for (int l = 0; quadratic ? l < 3 : l < s3; l++) {
+                        double vi = loc[o + 2 * l];
+                        t0 += wz[l] * vi;
+                        t1 += dwz[l] * vi;
+                    }
+                    val += wij * t0;
+                    gx += gij * t0;
+                    gy += hij * t0;
+                    gz += wij * t1;
+                }
+            }
+            int c = C * p;
+            double vp = vol[p];
+            double rp = CONSISTENT * vp * cf[c] * val;
+            double fx = vp * (cf[c + 2] * gx + cf[c + 5] * gy + cf[c + 6] * gz);
+            double fy = vp * (cf[c + 5] * gx + cf[c + 3] * gy + cf[c + 7] * gz);
+            double fz = vp * (cf[c + 6] * gx + cf[c + 7] * gy + cf[c + 4] * gz);
+            for (int i = 0; quadratic ? i < 3 : i < s3; i++) {
+                for (int j = 0; quadratic ? j < 3 : j < s3; j++) {
+                    double wij = wx[i] * wy[j];
+                    // Per node: w rp + (dw_x w_y w_z) fx + (w_x dw_y w_z) fy + (w_x w_y dw_z) fz.
+                    double k0 = wij * rp + dwx[i] * wy[j] * fx + wx[i] * dwy[j] * fy;
+                    double k1 = wij * fz;
+                    int o = 2 * (base + (i * L + j) * L);
+                    for (int l = 0; quadratic ? l < 3 : l < s3; l++) {
+                        loc[o + 2 * l + 1] += wz[l] * k0 + dwz[l] * k1;
+                    }
+                }
+            }
+        }
     }
 
     // ------------------------------------------------------------------ block-local helpers
