@@ -340,65 +340,18 @@ public final class AnisotropicPhaseField implements DamageModel {
     }
 
     /** Fluent builder; {@link #build()} validates and names the field and its allowed range. */
-    public static final class Builder {
-        private double fractureEnergy = Double.NaN;
-        private double lengthScale = Double.NaN;
-        private double viscosity = 0.0;
-        private double residual = PhaseFieldAT2.DEFAULT_RESIDUAL_STIFFNESS;
+    public static final class Builder extends PhaseFieldBuilder<Builder> {
         private double[] strengths;
         private boolean stressDriven;
         private double sigmaAlong = Double.NaN;
         private double sigmaAcross = Double.NaN;
         private double slope = DEFAULT_STRESS_DRIVING_SLOPE;
-        private TensionSplit split = TensionSplit.LAW_DEFAULT;
 
         private Builder() {
         }
 
-        /**
-         * @param split tension-compression split asked of the material law (which the body checks it offers);
-         *              default {@link TensionSplit#LAW_DEFAULT}
-         * @return this
-         */
-        public Builder tensionSplit(TensionSplit split) {
-            this.split = split;
-            return this;
-        }
-
-        /**
-         * @param joulesPerSquareMetre fracture energy Gc, J/m^2, &gt; 0 (required)
-         * @return this
-         */
-        public Builder fractureEnergy(double joulesPerSquareMetre) {
-            this.fractureEnergy = joulesPerSquareMetre;
-            return this;
-        }
-
-        /**
-         * @param metres length scale l across the fibers, m, at least one cell; NaN (the default) means two cells
-         * @return this
-         */
-        public Builder lengthScale(double metres) {
-            this.lengthScale = metres;
-            return this;
-        }
-
-        /**
-         * @param pascalSeconds crack-speed viscosity eta, Pa s, &gt;= 0; 0 (the default) is rate-independent
-         * @return this
-         */
-        public Builder viscosity(double pascalSeconds) {
-            this.viscosity = pascalSeconds;
-            return this;
-        }
-
-        /**
-         * @param k residual stiffness, dimensionless, in [0, 0.1]; default
-         *          {@link PhaseFieldAT2#DEFAULT_RESIDUAL_STIFFNESS}
-         * @return this
-         */
-        public Builder residualStiffness(double k) {
-            this.residual = k;
+        @Override
+        Builder self() {
             return this;
         }
 
