@@ -359,11 +359,12 @@ final class PhaseFieldSolve {
             }
             Simulation.Scratch sc = sim.scratch[w];
             double[] loc = local[w];
-            clear(loc, blk, 2);
             int[] li = localIndex[w], gn = gridNode[w];
             int count = nodesOf(blk, li, gn);
+            // The listed nodes are exactly the block's range, so this also clears the scattered slots.
             for (int k = 0; k < count; k++) {
                 loc[2 * li[k]] = v[gn[k]];
+                loc[2 * li[k] + 1] = 0;
             }
             forRuns(blk, (from, to, model) -> applyParticles(sc, loc, blk, from, to, vol, s3));
             for (int k = 0; k < count; k++) {
