@@ -203,12 +203,85 @@ public final class FixedCorotated implements MaterialLaw {
     @Override
     public void splitKirchhoffStress(MaterialState state, int from, int to, double[] tauDegraded, double[] tauKept,
                                      double[] psiDegraded, double[] psiKept) {
-        principalSplit(false, state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+        volumetricDeviatoricSplit(state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
     }
 
-    /** The volumetric-deviatoric or the spectral split, documented at the public split methods. */
-    private void principalSplit(boolean spectral, MaterialState state, int from, int to, double[] tauDegraded,
-                                double[] tauKept, double[] psiDegraded, double[] psiKept) {
+    /**
+     * The volumetric-deviatoric split without an SVD. With the left stretch V = R F^T = U diag(sigma) U^T (R from
+     * the polar decomposition, signed singular values as in {@link Svd3#rotation}) the principal forms above are
+     * matrix functions of V: the deviatoric stress is 2 mu V (V - m I), the volumetric shear stress 2 mu (m - 1) V,
+     * with m = tr V / 3, and the deviatoric energy mu ||V - m I||^2 (no cancellation between the mean and the
+     * spread of the stretches). The polar Newton iteration is several times cheaper than the SVD.
+     */
+    private void volumetricDeviatoricSplit(MaterialState state, int from, int to, double[] tauDegraded,
+                                           double[] tauKept, double[] psiDegraded, double[] psiKept) {
+        double[] f = state.deformation();
+        Mat3 a = new Mat3();
+        Mat3 r = new Mat3();
+        double m2 = 2.0 * mu;
+        for (int p = from; p < to; p++) {
+            int o = 9 * (p - from);
+            a.load(f, 9 * p);
+            if (!Svd3.rotation(a, r)) {
+                SplitSupport.invalid(tauDegraded, tauKept, psiDegraded, psiKept, o, p - from);
+                continue;
+            }
+            // V = sym(R F^T), row by row.
+            double v00 = r.m00 * a.m00 + r.m01 * a.m01 + r.m02 * a.m02;
+            double v11 = r.m10 * a.m10 + r.m11 * a.m11 + r.m12 * a.m12;
+            double v22 = r.m20 * a.m20 + r.m21 * a.m21 + r.m22 * a.m22;
+            double v01 = 0.5 * (r.m00 * a.m10 + r.m01 * a.m11 + r.m02 * a.m12
+                    + r.m10 * a.m00 + r.m11 * a.m01 + r.m12 * a.m02);
+            double v02 = 0.5 * (r.m00 * a.m20 + r.m01 * a.m21 + r.m02 * a.m22
+                    + r.m20 * a.m00 + r.m21 * a.m01 + r.m22 * a.m02);
+            double v12 = 0.5 * (r.m10 * a.m20 + r.m11 * a.m21 + r.m12 * a.m22
+                    + r.m20 * a.m10 + r.m21 * a.m11 + r.m22 * a.m12);
+            double m = (v00 + v11 + v22) / 3.0;
+            // W = V - m I, the deviatoric stretch.
+            double w00 = v00 - m, w11 = v11 - m, w22 = v22 - m;
+            double psiDev = mu * (w00 * w00 + w11 * w11 + w22 * w22 + 2.0 * (v01 * v01 + v02 * v02 + v12 * v12));
+            double mm1 = m - 1.0;
+            double psiMean = 3.0 * mu * mm1 * mm1;
+            double j = det(a);
+            double jm1 = j - 1.0;
+            double psiVol = 0.5 * lambda * jm1 * jm1;
+            boolean meanDegraded = m > 1.0;
+            boolean volDegraded = j > 1.0;
+            // Deviatoric 2 mu V W (V and W commute, so the product is symmetric).
+            double d00 = m2 * (v00 * w00 + v01 * v01 + v02 * v02);
+            double d11 = m2 * (v01 * v01 + v11 * w11 + v12 * v12);
+            double d22 = m2 * (v02 * v02 + v12 * v12 + v22 * w22);
+            double d01 = m2 * (v00 * v01 + v01 * w11 + v02 * v12);
+            double d02 = m2 * (v00 * v02 + v01 * v12 + v02 * w22);
+            double d12 = m2 * (v01 * v02 + v11 * v12 + v12 * w22);
+            double g = m2 * mm1;
+            double iso = lambda * jm1 * j;
+            double gd = meanDegraded ? g : 0.0, gk = meanDegraded ? 0.0 : g;
+            double id = volDegraded ? iso : 0.0, ik = volDegraded ? 0.0 : iso;
+            putSymmetric(tauDegraded, o, d00 + gd * v00 + id, d11 + gd * v11 + id, d22 + gd * v22 + id,
+                    d01 + gd * v01, d02 + gd * v02, d12 + gd * v12);
+            putSymmetric(tauKept, o, gk * v00 + ik, gk * v11 + ik, gk * v22 + ik, gk * v01, gk * v02, gk * v12);
+            psiDegraded[p - from] = psiDev + (meanDegraded ? psiMean : 0.0) + (volDegraded ? psiVol : 0.0);
+            psiKept[p - from] = (meanDegraded ? 0.0 : psiMean) + (volDegraded ? 0.0 : psiVol);
+        }
+    }
+
+    private static void putSymmetric(double[] out, int o, double s00, double s11, double s22, double s01,
+                                     double s02, double s12) {
+        out[o] = s00;
+        out[o + 1] = s01;
+        out[o + 2] = s02;
+        out[o + 3] = s01;
+        out[o + 4] = s11;
+        out[o + 5] = s12;
+        out[o + 6] = s02;
+        out[o + 7] = s12;
+        out[o + 8] = s22;
+    }
+
+    /** The spectral split, documented at the public split method. */
+    private void spectralSplit(MaterialState state, int from, int to, double[] tauDegraded, double[] tauKept,
+                               double[] psiDegraded, double[] psiKept) {
         double[] f = state.deformation();
         Mat3 a = new Mat3();
         Mat3 u = new Mat3();
@@ -222,49 +295,20 @@ public final class FixedCorotated implements MaterialLaw {
                 continue;
             }
             double j = det(a);
-            if (spectral) {
-                double e0 = s.x - 1.0, e1 = s.y - 1.0, e2 = s.z - 1.0;
-                boolean t0 = e0 > 0.0, t1 = e1 > 0.0, t2 = e2 > 0.0;
-                double jm1 = j - 1.0;
-                boolean expanded = jm1 > 0.0;
-                double iso = lambda * jm1 * j;
-                double m2 = 2.0 * mu;
-                double k0 = m2 * e0 * s.x, k1 = m2 * e1 * s.y, k2 = m2 * e2 * s.z;
-                symmetricUDUt(u, t0 ? k0 : 0.0, t1 ? k1 : 0.0, t2 ? k2 : 0.0, expanded ? iso : 0.0, tauDegraded, o);
-                symmetricUDUt(u, t0 ? 0.0 : k0, t1 ? 0.0 : k1, t2 ? 0.0 : k2, expanded ? 0.0 : iso, tauKept, o);
-                double q0 = mu * e0 * e0, q1 = mu * e1 * e1, q2 = mu * e2 * e2;
-                double volume = 0.5 * lambda * jm1 * jm1;
-                psiDegraded[p - from] = (t0 ? q0 : 0.0) + (t1 ? q1 : 0.0) + (t2 ? q2 : 0.0)
-                        + (expanded ? volume : 0.0);
-                psiKept[p - from] = (t0 ? 0.0 : q0) + (t1 ? 0.0 : q1) + (t2 ? 0.0 : q2) + (expanded ? 0.0 : volume);
-                continue;
-            }
-            double m = (s.x + s.y + s.z) / 3.0;
-            double e0 = s.x - m, e1 = s.y - m, e2 = s.z - m;
-            double m2 = 2.0 * mu;
-            double psiDev = mu * (e0 * e0 + e1 * e1 + e2 * e2);
-            double mm1 = m - 1.0;
-            double psiMean = 3.0 * mu * mm1 * mm1;
+            double e0 = s.x - 1.0, e1 = s.y - 1.0, e2 = s.z - 1.0;
+            boolean t0 = e0 > 0.0, t1 = e1 > 0.0, t2 = e2 > 0.0;
             double jm1 = j - 1.0;
-            double psiVol = 0.5 * lambda * jm1 * jm1;
-            boolean meanDegraded = m > 1.0;
-            boolean volDegraded = j > 1.0;
-            // principal Kirchhoff stresses of each part; the degradable and kept sets are disjoint
-            double dev0 = m2 * e0 * s.x, dev1 = m2 * e1 * s.y, dev2 = m2 * e2 * s.z;
-            double mean0 = m2 * mm1 * s.x, mean1 = m2 * mm1 * s.y, mean2 = m2 * mm1 * s.z;
+            boolean expanded = jm1 > 0.0;
             double iso = lambda * jm1 * j;
-            symmetricUDUt(u,
-                    meanDegraded ? dev0 + mean0 : dev0,
-                    meanDegraded ? dev1 + mean1 : dev1,
-                    meanDegraded ? dev2 + mean2 : dev2,
-                    volDegraded ? iso : 0.0, tauDegraded, o);
-            symmetricUDUt(u,
-                    meanDegraded ? 0.0 : mean0,
-                    meanDegraded ? 0.0 : mean1,
-                    meanDegraded ? 0.0 : mean2,
-                    volDegraded ? 0.0 : iso, tauKept, o);
-            psiDegraded[p - from] = psiDev + (meanDegraded ? psiMean : 0.0) + (volDegraded ? psiVol : 0.0);
-            psiKept[p - from] = (meanDegraded ? 0.0 : psiMean) + (volDegraded ? 0.0 : psiVol);
+            double m2 = 2.0 * mu;
+            double k0 = m2 * e0 * s.x, k1 = m2 * e1 * s.y, k2 = m2 * e2 * s.z;
+            symmetricUDUt(u, t0 ? k0 : 0.0, t1 ? k1 : 0.0, t2 ? k2 : 0.0, expanded ? iso : 0.0, tauDegraded, o);
+            symmetricUDUt(u, t0 ? 0.0 : k0, t1 ? 0.0 : k1, t2 ? 0.0 : k2, expanded ? 0.0 : iso, tauKept, o);
+            double q0 = mu * e0 * e0, q1 = mu * e1 * e1, q2 = mu * e2 * e2;
+            double volume = 0.5 * lambda * jm1 * jm1;
+            psiDegraded[p - from] = (t0 ? q0 : 0.0) + (t1 ? q1 : 0.0) + (t2 ? q2 : 0.0)
+                    + (expanded ? volume : 0.0);
+            psiKept[p - from] = (t0 ? 0.0 : q0) + (t1 ? 0.0 : q1) + (t2 ? 0.0 : q2) + (expanded ? 0.0 : volume);
         }
     }
 
@@ -294,8 +338,8 @@ public final class FixedCorotated implements MaterialLaw {
                                      double[] psiKept) {
         switch (split) {
             case LAW_DEFAULT, VOLUMETRIC_DEVIATORIC ->
-                    principalSplit(false, state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
-            case SPECTRAL -> principalSplit(true, state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+                    volumetricDeviatoricSplit(state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
+            case SPECTRAL -> spectralSplit(state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
             default -> MaterialLaw.super.splitKirchhoffStress(split, state, from, to, tauDegraded, tauKept,
                     psiDegraded, psiKept);
         }
