@@ -368,15 +368,7 @@ public final class FixedCorotated implements MaterialLaw {
         double t11 = d0 * u.m10 * u.m10 + d1 * u.m11 * u.m11 + d2 * u.m12 * u.m12 + iso;
         double t12 = d0 * u.m10 * u.m20 + d1 * u.m11 * u.m21 + d2 * u.m12 * u.m22;
         double t22 = d0 * u.m20 * u.m20 + d1 * u.m21 * u.m21 + d2 * u.m22 * u.m22 + iso;
-        out[o] = t00;
-        out[o + 1] = t01;
-        out[o + 2] = t02;
-        out[o + 3] = t01;
-        out[o + 4] = t11;
-        out[o + 5] = t12;
-        out[o + 6] = t02;
-        out[o + 7] = t12;
-        out[o + 8] = t22;
+        putSymmetric(out, o, t00, t11, t22, t01, t02, t12);
     }
 
     /** @return the law's name and constants, for diagnostics */
