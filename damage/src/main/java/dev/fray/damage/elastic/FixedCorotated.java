@@ -1,7 +1,5 @@
 package dev.fray.damage.elastic;
 
-import dev.fray.core.error.Checks;
-import dev.fray.core.material.MaterialLaw;
 import dev.fray.core.material.MaterialState;
 import dev.fray.core.material.TensionSplit;
 import dev.fray.core.math.Mat3;
@@ -32,45 +30,22 @@ import java.util.Arrays;
  *
  * <p>Immutable and thread-safe; no channels.
  */
-public final class FixedCorotated implements MaterialLaw {
+public final class FixedCorotated extends IsotropicElasticLaw {
     /** Registry name. */
     public static final String NAME = "fixed-corotated";
-
-    private final ElasticParameters parameters;
-    private final double mu;
-    private final double lambda;
 
     /**
      * @param parameters validated elastic constants (input, kept)
      * @throws dev.fray.core.error.InvalidInputException if parameters is null
      */
     public FixedCorotated(ElasticParameters parameters) {
-        this.parameters = Checks.notNull("elastic parameters", parameters);
-        this.mu = parameters.mu();
-        this.lambda = parameters.lambda();
-    }
-
-    /** @return the elastic constants this law was built from */
-    public ElasticParameters parameters() {
-        return parameters;
+        super(parameters);
     }
 
     /** {@inheritDoc} */
     @Override
     public String name() {
         return NAME;
-    }
-
-    /** {@inheritDoc} */
-    @Override
-    public double density() {
-        return parameters.density();
-    }
-
-    /** {@inheritDoc} Here the P-wave speed sqrt((lambda + 2 mu) / rho). */
-    @Override
-    public double waveSpeed() {
-        return parameters.pWaveSpeed();
     }
 
     /** {@inheritDoc} Uses ||F - R||_F^2 = sum (sigma_i - 1)^2 over the signed singular values. */
@@ -340,7 +315,7 @@ public final class FixedCorotated implements MaterialLaw {
             case LAW_DEFAULT, VOLUMETRIC_DEVIATORIC ->
                     volumetricDeviatoricSplit(state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
             case SPECTRAL -> spectralSplit(state, from, to, tauDegraded, tauKept, psiDegraded, psiKept);
-            default -> MaterialLaw.super.splitKirchhoffStress(split, state, from, to, tauDegraded, tauKept,
+            default -> defaultSplit(split, state, from, to, tauDegraded, tauKept,
                     psiDegraded, psiKept);
         }
     }
@@ -374,6 +349,6 @@ public final class FixedCorotated implements MaterialLaw {
     /** @return the law's name and constants, for diagnostics */
     @Override
     public String toString() {
-        return NAME + parameters;
+        return NAME + parameters();
     }
 }

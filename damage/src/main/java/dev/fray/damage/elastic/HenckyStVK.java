@@ -1,7 +1,5 @@
 package dev.fray.damage.elastic;
 
-import dev.fray.core.error.Checks;
-import dev.fray.core.material.MaterialLaw;
 import dev.fray.core.material.MaterialState;
 import dev.fray.core.material.TensionSplit;
 import dev.fray.core.math.Mat3;
@@ -34,7 +32,7 @@ import java.util.Arrays;
  *
  * <p>Immutable and thread-safe; no channels.
  */
-public final class HenckyStVK implements MaterialLaw {
+public final class HenckyStVK extends IsotropicElasticLaw {
     /** Registry name. */
     public static final String NAME = "stvk-hencky";
 
@@ -46,41 +44,18 @@ public final class HenckyStVK implements MaterialLaw {
 
     private static final double LOG_STRETCH_FLOOR = Math.log(STRETCH_FLOOR);
 
-    private final ElasticParameters parameters;
-    private final double mu;
-    private final double lambda;
-
     /**
      * @param parameters validated elastic constants (input, kept)
      * @throws dev.fray.core.error.InvalidInputException if parameters is null
      */
     public HenckyStVK(ElasticParameters parameters) {
-        this.parameters = Checks.notNull("elastic parameters", parameters);
-        this.mu = parameters.mu();
-        this.lambda = parameters.lambda();
-    }
-
-    /** @return the elastic constants this law was built from */
-    public ElasticParameters parameters() {
-        return parameters;
+        super(parameters);
     }
 
     /** {@inheritDoc} */
     @Override
     public String name() {
         return NAME;
-    }
-
-    /** {@inheritDoc} */
-    @Override
-    public double density() {
-        return parameters.density();
-    }
-
-    /** {@inheritDoc} Here the P-wave speed sqrt((lambda + 2 mu) / rho). */
-    @Override
-    public double waveSpeed() {
-        return parameters.pWaveSpeed();
     }
 
     /** {@inheritDoc} */
@@ -260,7 +235,7 @@ public final class HenckyStVK implements MaterialLaw {
                     psiKept);
             case VOLUMETRIC_DEVIATORIC -> principalSplit(false, state, from, to, tauDegraded, tauKept, psiDegraded,
                     psiKept);
-            default -> MaterialLaw.super.splitKirchhoffStress(split, state, from, to, tauDegraded, tauKept,
+            default -> defaultSplit(split, state, from, to, tauDegraded, tauKept,
                     psiDegraded, psiKept);
         }
     }
@@ -284,6 +259,6 @@ public final class HenckyStVK implements MaterialLaw {
     /** @return the law's name and constants, for diagnostics */
     @Override
     public String toString() {
-        return NAME + parameters;
+        return NAME + parameters();
     }
 }
