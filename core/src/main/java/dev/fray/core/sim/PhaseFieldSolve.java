@@ -9,8 +9,8 @@ import java.util.Arrays;
 /**
  * The grid solve of phase-field damage: a d - div(D grad d) = b, with per-particle coefficients from the damage
  * models, discretised with the transfer's B-spline shape functions and particle quadrature (a blend of the
- * consistent and lumped reaction term, consistent diffusion term, applied matrix-free), solved matrix-free by Jacobi-preconditioned conjugate gradients warm-started
- * from the particles' current damage, and interpolated back to the particles. Scatters use the same colour
+ * consistent and lumped reaction term, consistent diffusion term), solved matrix-free by Jacobi-preconditioned
+ * conjugate gradients warm-started from the particles' current damage, and interpolated back to the particles. Scatters use the same colour
  * phases as the transfer and every dot product sums fixed grid-block tasks in order, so the result does not
  * depend on the thread count. One field is shared by all phase-field bodies.
  */
@@ -190,7 +190,8 @@ final class PhaseFieldSolve {
                                 loc[q + 3] += wv;
                                 loc[q + 4] += wv * dp;
                                 loc[q + 5] += v * (gx * (dxx * gx + dxy * gy + dxz * gz)
-                                        + gy * (dxy * gx + dyy * gy + dyz * gz) + gz * (dxz * gx + dyz * gy + dzz * gz));
+                                        + gy * (dxy * gx + dyy * gy + dyz * gz)
+                                        + gz * (dxz * gx + dyz * gy + dzz * gz));
                             }
                         }
                     }

@@ -1137,6 +1137,9 @@ public final class Simulation implements SimulationView, AutoCloseable {
         double work = 0;
         for (int o = 0; o < obstacles.size(); o++) {
             Obstacle ob = obstacles.get(o);
+            if (ob.contact().type() == Contact.Type.OPEN) {
+                continue;
+            }
             int b = 6 * o;
             double px = x[3 * p], py = x[3 * p + 1], pz = x[3 * p + 2];
             if (px < obstacleBoxEnd[b] || py < obstacleBoxEnd[b + 1] || pz < obstacleBoxEnd[b + 2]
@@ -1144,7 +1147,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
                 continue;
             }
             double dist = obstacleContactFrame(ob, obstaclePoseEnd, 12 * o, px, py, pz, nrm);
-            if (dist > 0 || ob.contact().type() == Contact.Type.OPEN) {
+            if (dist > 0) {
                 continue;
             }
             x[3 * p] = px - dist * nrm[0];

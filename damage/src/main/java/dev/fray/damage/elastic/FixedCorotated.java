@@ -320,12 +320,6 @@ public final class FixedCorotated extends IsotropicElasticLaw {
         }
     }
 
-    /** {@inheritDoc} All four: law default (volumetric-deviatoric), volumetric-deviatoric, spectral and none. */
-    @Override
-    public boolean supportsSplit(TensionSplit split) {
-        return SplitSupport.offersEvery(split);
-    }
-
     /** Determinant from the entries; near rest this is more accurate than the product of singular values. */
     private static double det(Mat3 a) {
         return a.m00 * (a.m11 * a.m22 - a.m12 * a.m21) + a.m01 * (a.m12 * a.m20 - a.m10 * a.m22)

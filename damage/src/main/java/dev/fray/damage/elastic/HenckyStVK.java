@@ -240,12 +240,6 @@ public final class HenckyStVK extends IsotropicElasticLaw {
         }
     }
 
-    /** {@inheritDoc} All four: law default (spectral), volumetric-deviatoric, spectral and none. */
-    @Override
-    public boolean supportsSplit(TensionSplit split) {
-        return SplitSupport.offersEvery(split);
-    }
-
     /** ln s above the floor, its tangent line below. */
     private static double logStretch(double s) {
         return s >= STRETCH_FLOOR ? Math.log(s) : LOG_STRETCH_FLOOR + (s - STRETCH_FLOOR) / STRETCH_FLOOR;

@@ -43,6 +43,15 @@ abstract class IsotropicElasticLaw implements MaterialLaw {
         return parameters.pWaveSpeed();
     }
 
+    /**
+     * {@inheritDoc} All four: law default, volumetric-deviatoric, spectral and none (the law's split method says
+     * which one its default is).
+     */
+    @Override
+    public boolean supportsSplit(TensionSplit split) {
+        return SplitSupport.offersEvery(split);
+    }
+
     /** The interface's split, for the choices a law does not handle itself (reachable from subclasses). */
     final void defaultSplit(TensionSplit split, MaterialState state, int from, int to, double[] tauDegraded,
                             double[] tauKept, double[] psiDegraded, double[] psiKept) {

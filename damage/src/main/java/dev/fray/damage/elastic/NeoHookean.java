@@ -264,12 +264,6 @@ public final class NeoHookean extends IsotropicElasticLaw {
         }
     }
 
-    /** {@inheritDoc} All four: law default (volumetric-deviatoric), volumetric-deviatoric, spectral and none. */
-    @Override
-    public boolean supportsSplit(TensionSplit split) {
-        return SplitSupport.offersEvery(split);
-    }
-
     /** The spectral split, documented at the public split method. */
     private void spectralSplit(MaterialState state, int from, int to, double[] tauDegraded, double[] tauKept,
                                double[] psiDegraded, double[] psiKept) {

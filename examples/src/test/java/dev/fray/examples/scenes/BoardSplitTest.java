@@ -43,7 +43,8 @@ class BoardSplitTest {
                     offPlane++;
                 }
                 // Opening of the split 5 cm past the check's tip: the halves' mean sideways movement.
-                if (Math.abs(x0[3 * p] - (CHECK_TIP - 0.05)) < 0.025 && Math.abs(off) > cell && Math.abs(off) < 3 * cell) {
+                boolean nearPlane = Math.abs(off) > cell && Math.abs(off) < 3 * cell;
+                if (Math.abs(x0[3 * p] - (CHECK_TIP - 0.05)) < 0.025 && nearPlane) {
                     if (off > 0) {
                         upper += x[3 * p + 1] - x0[3 * p + 1];
                         nu++;
