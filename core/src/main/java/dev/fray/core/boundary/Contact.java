@@ -9,7 +9,7 @@ import dev.fray.core.error.Checks;
  * @param friction Coulomb friction coefficient (dimensionless, &gt;= 0), used by {@link Type#SLIP} and
  *                 {@link Type#SEPARATING}
  */
-public record Contact(Type type, double friction) {
+public record Contact(Type type, double friction) implements ContactLaw {
     /** Contact laws. */
     public enum Type {
         /** No boundary at all (an open domain face). */
@@ -54,17 +54,26 @@ public record Contact(Type type, double friction) {
         return new Contact(Type.SEPARATING, friction);
     }
 
-    /**
-     * Applies the contact law to a node velocity in place.
-     *
-     * @param v   (input and output) node velocity at v[off..off+2], m/s
-     * @param off offset into v
-     * @param n   outward unit normal of the boundary at n[no..no+2]
-     * @param no  offset into n
-     * @param bx  boundary velocity x, m/s
-     * @param by  boundary velocity y
-     * @param bz  boundary velocity z
-     */
+    /** {@inheritDoc} */
+    @Override
+    public boolean acts() {
+        return type != Type.OPEN;
+    }
+
+    /** {@inheritDoc} */
+    @Override
+    public boolean fixesAll() {
+        return type == Type.STICKY;
+    }
+
+    /** {@inheritDoc} */
+    @Override
+    public boolean holdsNormal() {
+        return type == Type.STICKY || type == Type.SLIP;
+    }
+
+    /** {@inheritDoc} */
+    @Override
     public void apply(double[] v, int off, double[] n, int no, double bx, double by, double bz) {
         switch (type) {
             case OPEN:

@@ -7,9 +7,9 @@ import java.util.Arrays;
  * stored, found through a hash of their integer block coordinates, so memory grows with the occupied blocks and
  * not with the domain's bounding box. Node (i, j, k) of the integer lattice sits at origin + (i, j, k) dx.
  *
- * <p>Node data are flat arrays indexed by {@code 64 * block + 16 * lx + 4 * ly + lz}: mass (kg), velocity or
- * momentum (3 per node, m/s or kg m/s) and a grip tag. Not thread-safe to rebuild; the solver fills disjoint node
- * ranges from several threads.
+ * <p>Node data are flat arrays indexed by {@code 64 * block + 16 * lx + 4 * ly + lz}: mass (kg) and velocity or
+ * momentum (3 per node, m/s or kg m/s). Further velocity fields per node live in a {@link FieldSet}. Not
+ * thread-safe to rebuild; the solver fills disjoint node ranges from several threads.
  */
 public final class SparseGrid {
     /** Nodes per block edge. */
@@ -25,7 +25,6 @@ public final class SparseGrid {
     private int[] blockCoords = new int[3 * 256];
     private double[] mass = new double[0];
     private double[] momentum = new double[0];
-    private int[] grip = new int[0];
     private long peakBytes;
 
     /**
@@ -98,9 +97,8 @@ public final class SparseGrid {
             int cap = Math.max(nodes, mass.length + mass.length / 2);
             mass = new double[cap];
             momentum = new double[3 * cap];
-            grip = new int[cap];
         }
-        long bytes = mass.length * (8L + 24L + 4L) + map.memoryBytes() + blockCoords.length * 4L;
+        long bytes = mass.length * (8L + 24L) + map.memoryBytes() + blockCoords.length * 4L;
         peakBytes = Math.max(peakBytes, bytes);
     }
 
@@ -115,7 +113,6 @@ public final class SparseGrid {
         int b = to * NODES_PER_BLOCK;
         Arrays.fill(mass, a, b, 0.0);
         Arrays.fill(momentum, 3 * a, 3 * b, 0.0);
-        Arrays.fill(grip, a, b, Integer.MAX_VALUE);
     }
 
     /** @return number of active blocks */
@@ -138,14 +135,14 @@ public final class SparseGrid {
         return momentum;
     }
 
-    /** @return smallest grip index touching each node, {@link Integer#MAX_VALUE} for none (live array) */
-    public int[] grip() {
-        return grip;
+    /** @return nodes in the active blocks */
+    public int nodeCount() {
+        return blocks * NODES_PER_BLOCK;
     }
 
     /** @return bytes held by the grid's arrays now */
     public long memoryBytes() {
-        return mass.length * (8L + 24L + 4L) + map.memoryBytes() + blockCoords.length * 4L;
+        return mass.length * (8L + 24L) + map.memoryBytes() + blockCoords.length * 4L;
     }
 
     /** @return the largest {@link #memoryBytes()} seen since creation */

@@ -23,15 +23,27 @@ import java.util.Map;
  *                      has left its block's reach, so the blocks are part of the state
  * @param blockStarts   first particle of each block, with the particle count appended (length
  *                      {@code blockKeys.length + 1}), or an empty array with an empty blockKeys
+ * @param tallies       the energy and boundary tallies after {@code boundaryWork} (damping loss, contact loss,
+ *                      then impulse and work per grip and obstacle; see the step's {@code Tallies}), or an empty
+ *                      array for a state saved before they existed (then they restart at 0)
  */
 public record SimulationState(double time, long step, double dt, int frame, boolean frameZeroSent, double maxSpeed,
                               double boundaryWork, Map<String, double[]> channels, int[] body, int[] id,
-                              long[] blockKeys, int[] blockStarts) {
+                              long[] blockKeys, int[] blockStarts, double[] tallies) {
     /** Freezes the channel map. */
     public SimulationState {
         channels = Collections.unmodifiableMap(new LinkedHashMap<>(channels));
         blockKeys = blockKeys == null ? new long[0] : blockKeys;
         blockStarts = blockStarts == null ? new int[0] : blockStarts;
+        tallies = tallies == null ? new double[0] : tallies;
+    }
+
+    /** A state without tallies beyond the boundary work (as saved before they existed). */
+    public SimulationState(double time, long step, double dt, int frame, boolean frameZeroSent, double maxSpeed,
+                           double boundaryWork, Map<String, double[]> channels, int[] body, int[] id,
+                           long[] blockKeys, int[] blockStarts) {
+        this(time, step, dt, frame, frameZeroSent, maxSpeed, boundaryWork, channels, body, id, blockKeys,
+                blockStarts, null);
     }
 
     /** @return number of particles */
