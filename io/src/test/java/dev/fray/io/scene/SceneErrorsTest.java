@@ -1,5 +1,6 @@
 package dev.fray.io.scene;
 
+import dev.fray.core.boundary.VelocitySchedule;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.plugin.PluginRegistry;
@@ -14,6 +15,7 @@ import java.nio.file.Path;
 import java.util.List;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertSame;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assertions.fail;
@@ -237,6 +239,59 @@ class SceneErrorsTest extends FrayTestBase {
         at(p.get(5), "bodies[0].initialValues[3].regoin", 19, "did you mean \"region\"");
         at(p.get(6), "grips[0].region.halfAngle", 23, "(0, 1.5707963267948966) rad");
         at(p.get(7), "grips[0].region.depth", 23, "> 0 m");
+    }
+
+    /** The valid scene with a motion on its grip (line 16). */
+    private static String gripMotion(String motion) {
+        return valid().replace("\"normal\": [0, -1, 0]}}]",
+                "\"normal\": [0, -1, 0]}, \"motion\": " + motion + "}]");
+    }
+
+    /**
+     * docs/scene-format.md, "motion": knot times at least 0 and strictly increasing, finite factors, a knot or more;
+     * each problem at its path, all at once.
+     */
+    @Test
+    void badSchedulesAreLocated() throws IOException {
+        String v = "{\"velocity\": [0, 0.1, 0], \"schedule\": ";
+        SceneProblem p = only(fails("decreasing.json", gripMotion(v + "[[0, 0], [0.2, 1], [0.1, 1]]}")));
+        at(p, "grips[0].motion.schedule[2][0]", 16, "0.1 s", "strictly increasing", "> 0.2 s", "knot 1");
+        p = only(fails("equal.json", gripMotion(v + "[[0, 0], [0.2, 1], [0.2, 0]]}")));
+        at(p, "grips[0].motion.schedule[2][0]", 16, "strictly increasing");
+        p = only(fails("huge.json", gripMotion(v + "[[0, 0], [0.2, 1e999]]}")));
+        at(p, "grips[0].motion.schedule[1][1]", 16, "finite", "1e999");
+        p = only(fails("hugetime.json", gripMotion(v + "[[0, 0], [-1e999, 1]]}")));
+        at(p, "grips[0].motion.schedule[1][0]", 16, "finite", "-1e999");
+        // NaN is not JSON: the parser stops at it, with its line.
+        p = only(fails("nan.json", gripMotion(v + "[[0, 0], [0.2, NaN]]}")));
+        assertEquals(16, p.line(), p.toString());
+        assertTrue(p.message().startsWith("not valid JSON"), p.toString());
+        p = only(fails("empty.json", gripMotion(v + "[]}")));
+        at(p, "grips[0].motion.schedule", 16, "at least one knot");
+        p = only(fails("negative.json", gripMotion(v + "[[-0.1, 0], [0.2, 1]]}")));
+        at(p, "grips[0].motion.schedule[0][0]", 16, "-0.1", ">= 0 s");
+        p = only(fails("triple.json", gripMotion(v + "[[0, 0, 1]]}")));
+        at(p, "grips[0].motion.schedule[0]", 16, "[time (s), factor]", "a list of 3");
+        p = only(fails("ramp0.json", gripMotion("{\"velocity\": [0, 0.1, 0], \"ramp\": 0}")));
+        at(p, "grips[0].motion.ramp", 16, "> 0 s");
+        p = only(fails("both.json", gripMotion("{\"ramp\": 0.1, \"schedule\": [[0, 1]]}")));
+        at(p, "grips[0].motion.ramp", 16, "either \"ramp\" or \"schedule\"");
+        SceneFileException e = fails("two.json", gripMotion(v + "[[0, \"up\"], [0.2, 1], [0.1, 1e999]]}"));
+        assertEquals(List.of("grips[0].motion.schedule[0][1]", "grips[0].motion.schedule[2][0]",
+                "grips[0].motion.schedule[2][1]"), e.problems().stream().map(SceneProblem::path).toList(),
+                "every bad knot is reported at once");
+    }
+
+    @Test
+    void schedulesRead() throws IOException {
+        LoadedScene s = READER.read(write("ramp.json", gripMotion("{\"velocity\": [0, 0.2, 0], \"ramp\": 0.1}")));
+        assertEquals(VelocitySchedule.ramp(0.1), s.scene().grips().get(0).motion().schedule());
+        s = READER.read(write("knots.json", gripMotion("{\"velocity\": [0, 0.2, 0], "
+                + "\"schedule\": [[0, 0], [0.1, 1], [2, 1], [2.05, 0]]}")));
+        VelocitySchedule k = s.scene().grips().get(0).motion().schedule();
+        assertEquals(VelocitySchedule.of(new double[] {0, 0.1, 2, 2.05}, new double[] {0, 1, 1, 0}), k);
+        s = READER.read(write("none.json", gripMotion("{\"velocity\": [0, 0.2, 0]}")));
+        assertSame(VelocitySchedule.constant(), s.scene().grips().get(0).motion().schedule());
     }
 
     @Test
