@@ -7,6 +7,8 @@ import dev.fray.core.plugin.PluginRegistry;
 import dev.fray.core.testing.FrayTestBase;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.CsvSource;
 
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
@@ -247,36 +249,36 @@ class SceneErrorsTest extends FrayTestBase {
                 "\"normal\": [0, -1, 0]}, \"motion\": " + motion + "}]");
     }
 
+    private static final String KNOTS = "{\"velocity\": [0, 0.1, 0], \"schedule\": ";
+
     /**
-     * docs/scene-format.md, "motion": knot times at least 0 and strictly increasing, finite factors, a knot or more;
-     * each problem at its path, all at once.
+     * docs/scene-format.md, "motion": knot times at least 0 and strictly increasing, finite factors, a knot or more.
+     * Each case: the motion, the path of the problem, words of its message.
      */
+    @ParameterizedTest
+    @CsvSource(delimiter = '|', value = {
+        "[[0, 0], [0.2, 1], [0.1, 1]]} | schedule[2][0] | 0.1 s;strictly increasing;> 0.2 s;knot 1",
+        "[[0, 0], [0.2, 1], [0.2, 0]]} | schedule[2][0] | strictly increasing",
+        "[[0, 0], [0.2, 1e999]]}       | schedule[1][1] | finite;1e999",
+        "[[0, 0], [-1e999, 1]]}        | schedule[1][0] | finite;-1e999",
+        "[]}                           | schedule       | at least one knot",
+        "[[-0.1, 0], [0.2, 1]]}        | schedule[0][0] | -0.1;>= 0 s",
+        "[[0, 0, 1]]}                  | schedule[0]    | [time (s), factor];a list of 3",
+        "{\"velocity\": [0, 0.1, 0], \"ramp\": 0}          | ramp | > 0 s",
+        "{\"ramp\": 0.1, \"schedule\": [[0, 1]]}          | ramp | either \"ramp\" or \"schedule\""})
+    void badSchedulesAreLocated(String motion, String path, String words) throws IOException {
+        String m = motion.startsWith("{") ? motion : KNOTS + motion;
+        SceneProblem p = only(fails("schedule.json", gripMotion(m)));
+        at(p, "grips[0].motion." + path, 16, words.split(";"));
+    }
+
     @Test
-    void badSchedulesAreLocated() throws IOException {
-        String v = "{\"velocity\": [0, 0.1, 0], \"schedule\": ";
-        SceneProblem p = only(fails("decreasing.json", gripMotion(v + "[[0, 0], [0.2, 1], [0.1, 1]]}")));
-        at(p, "grips[0].motion.schedule[2][0]", 16, "0.1 s", "strictly increasing", "> 0.2 s", "knot 1");
-        p = only(fails("equal.json", gripMotion(v + "[[0, 0], [0.2, 1], [0.2, 0]]}")));
-        at(p, "grips[0].motion.schedule[2][0]", 16, "strictly increasing");
-        p = only(fails("huge.json", gripMotion(v + "[[0, 0], [0.2, 1e999]]}")));
-        at(p, "grips[0].motion.schedule[1][1]", 16, "finite", "1e999");
-        p = only(fails("hugetime.json", gripMotion(v + "[[0, 0], [-1e999, 1]]}")));
-        at(p, "grips[0].motion.schedule[1][0]", 16, "finite", "-1e999");
+    void scheduleProblemsComeTogether() throws IOException {
         // NaN is not JSON: the parser stops at it, with its line.
-        p = only(fails("nan.json", gripMotion(v + "[[0, 0], [0.2, NaN]]}")));
+        SceneProblem p = only(fails("nan.json", gripMotion(KNOTS + "[[0, 0], [0.2, NaN]]}")));
         assertEquals(16, p.line(), p.toString());
         assertTrue(p.message().startsWith("not valid JSON"), p.toString());
-        p = only(fails("empty.json", gripMotion(v + "[]}")));
-        at(p, "grips[0].motion.schedule", 16, "at least one knot");
-        p = only(fails("negative.json", gripMotion(v + "[[-0.1, 0], [0.2, 1]]}")));
-        at(p, "grips[0].motion.schedule[0][0]", 16, "-0.1", ">= 0 s");
-        p = only(fails("triple.json", gripMotion(v + "[[0, 0, 1]]}")));
-        at(p, "grips[0].motion.schedule[0]", 16, "[time (s), factor]", "a list of 3");
-        p = only(fails("ramp0.json", gripMotion("{\"velocity\": [0, 0.1, 0], \"ramp\": 0}")));
-        at(p, "grips[0].motion.ramp", 16, "> 0 s");
-        p = only(fails("both.json", gripMotion("{\"ramp\": 0.1, \"schedule\": [[0, 1]]}")));
-        at(p, "grips[0].motion.ramp", 16, "either \"ramp\" or \"schedule\"");
-        SceneFileException e = fails("two.json", gripMotion(v + "[[0, \"up\"], [0.2, 1], [0.1, 1e999]]}"));
+        SceneFileException e = fails("two.json", gripMotion(KNOTS + "[[0, \"up\"], [0.2, 1], [0.1, 1e999]]}"));
         assertEquals(List.of("grips[0].motion.schedule[0][1]", "grips[0].motion.schedule[2][0]",
                 "grips[0].motion.schedule[2][1]"), e.problems().stream().map(SceneProblem::path).toList(),
                 "every bad knot is reported at once");
