@@ -103,6 +103,18 @@ public record Motion(double vx, double vy, double vz, double wx, double wy, doub
         return schedule.factor(t);
     }
 
+    /**
+     * The schedule's mean factor over a step, (S(t1) - S(t0)) / (t1 - t0): velocities scaled by it over the step
+     * carry the pose from time t0 to t1 exactly (see {@link VelocitySchedule#meanFactor(double, double)}).
+     *
+     * @param t0 start of the step, s
+     * @param t1 end of the step, s
+     * @return the mean factor, dimensionless; exactly 1.0 without a schedule
+     */
+    public double meanFactor(double t0, double t1) {
+        return schedule.meanFactor(t0, t1);
+    }
+
     /** @return whether the motion is the identity at all times (no velocity, or a schedule that is always 0) */
     public boolean isStill() {
         return (vx == 0 && vy == 0 && vz == 0 && wx == 0 && wy == 0 && wz == 0) || schedule.maxFactor() == 0;

@@ -152,6 +152,25 @@ public final class VelocitySchedule {
         return area[k] + 0.5 * (t - times[k]) * (factors[k] + interpolate(k, t));
     }
 
+    /**
+     * The mean factor over a time step, (S(t1) - S(t0)) / (t1 - t0). A driven velocity scaled by it moves, step by
+     * step, exactly v (S(t1) - S(t0)) (up to rounding), so over many steps the sum telescopes to v S(t); scaling by
+     * s(t0) instead would integrate the schedule by forward Euler and miss the ramp's area by O(step).
+     *
+     * @param t0 start of the step, s
+     * @param t1 end of the step, s; t1 == t0 gives s(t0)
+     * @return the mean factor, dimensionless; exactly 1.0 for the constant schedule
+     */
+    public double meanFactor(double t0, double t1) {
+        if (unit) {
+            return 1.0;
+        }
+        if (t1 == t0) {
+            return factor(t0);
+        }
+        return (integral(t1) - integral(t0)) / (t1 - t0);
+    }
+
     /** @return the largest |s(t)| over all times, which is the largest |s<sub>k</sub>|; 1 for the constant one */
     public double maxFactor() {
         return maxFactor;

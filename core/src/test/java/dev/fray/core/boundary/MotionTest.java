@@ -33,6 +33,31 @@ class MotionTest extends FrayTestBase {
         assertEquals(0.2, m.linearSpeed(), 1e-15);
     }
 
+    /**
+     * A solver that moves a grip by its velocity times the step's mean factor, step after step of uneven length,
+     * lands on v S(t) (the telescoping sum of S(t1) - S(t0)); the factor at the start of each step would not
+     * (forward Euler misses the ramp's triangle by O(step)). Common practice, no source.
+     */
+    @Test
+    void stepsScaledByTheMeanFactorAddUpToThePose() {
+        Motion m = Motion.linear(0.2, 0, 0).withSchedule(VelocitySchedule.ramp(0.1));
+        double t = 0;
+        double x = 0;
+        double euler = 0;
+        while (t < 0.5) {
+            double h = 1e-4 + 1e-3 * rand.nextDouble();
+            x += m.vx() * m.meanFactor(t, t + h) * h;
+            euler += m.vx() * m.factor(t) * h;
+            t += h;
+        }
+        double[] pose = new double[12];
+        m.pose(t, pose);
+        assertEquals(pose[9], x, EXACT_REL * pose[9], "mean factor per step");
+        assertTrue(Math.abs(euler - pose[9]) > 1e3 * EXACT_REL * pose[9], "the start factor per step drifts");
+        assertEquals(1.0, Motion.linear(1, 0, 0).meanFactor(0.3, 0.30001), "exactly 1 without a schedule");
+        assertEquals(0.5, m.meanFactor(0.05, 0.05), 1e-15, "an empty step gives the factor itself");
+    }
+
     @Test
     void scheduledPoseIsVelocityTimesIntegral() {
         VelocitySchedule s = VelocitySchedule.of(new double[] {0, 0.3, 1.2, 1.5}, new double[] {0, 2, 2, -0.5});
