@@ -6,6 +6,7 @@ import dev.fray.core.boundary.Motion;
 import dev.fray.core.boundary.Obstacle;
 import dev.fray.core.boundary.Shape;
 import dev.fray.core.boundary.Shapes;
+import dev.fray.core.boundary.VelocitySchedule;
 import dev.fray.core.damage.DamageModel;
 import dev.fray.core.error.Checks;
 import dev.fray.core.error.FrayMessage;
@@ -96,7 +97,7 @@ public final class SceneReader {
     /** Most initial-value regions of one body. */
     static final int MAX_REGIONS = 1000;
     static final List<String> OBSTACLE_KEYS = List.of("name", "shape", "contact", "motion");
-    static final List<String> MOTION_KEYS = List.of("velocity", "angularVelocity", "pivot");
+    static final List<String> MOTION_KEYS = List.of("velocity", "angularVelocity", "pivot", "schedule", "ramp");
     static final List<String> GRIP_KEYS = List.of("name", "body", "region", "motion");
     static final List<String> KERNELS = List.of("quadratic", "cubic");
     static final List<String> FORMATS = List.of("ply", "vtp", "csv");
@@ -1151,7 +1152,8 @@ public final class SceneReader {
         }
 
         private Motion motion(Fields parent) {
-            Obj o = parent.object("motion", false, "{\"velocity\": ..., \"angularVelocity\": ..., \"pivot\": ...}");
+            Obj o = parent.object("motion", false,
+                    "{\"velocity\": ..., \"angularVelocity\": ..., \"pivot\": ..., \"schedule\": ...}");
             if (o == null) {
                 return parent.has("motion") ? null : Motion.STILL;
             }
@@ -1160,10 +1162,11 @@ public final class SceneReader {
             double[] w = f.vector("angularVelocity", new double[3], Range.closed(-1e6, 1e6, "rad/s"),
                     "angular velocity");
             double[] c = f.vector("pivot", new double[3], Range.any("m"), "pivot at time 0");
-            if (v == null || w == null || c == null) {
+            VelocitySchedule s = ScheduleField.read(f);
+            if (v == null || w == null || c == null || s == null) {
                 return null;
             }
-            return new Motion(v[0], v[1], v[2], w[0], w[1], w[2], c[0], c[1], c[2]);
+            return new Motion(v[0], v[1], v[2], w[0], w[1], w[2], c[0], c[1], c[2], s);
         }
 
         private void grips(Fields top, Scene.Builder b, Set<String> bodyNames) {

@@ -196,9 +196,11 @@ public final class SceneWriter {
     }
 
     private static Map<String, Object> motion(Motion m) {
-        return map("velocity", new double[] {m.vx(), m.vy(), m.vz()},
+        Map<String, Object> out = map("velocity", new double[] {m.vx(), m.vy(), m.vz()},
                 "angularVelocity", new double[] {m.wx(), m.wy(), m.wz()},
                 "pivot", new double[] {m.cx(), m.cy(), m.cz()});
+        ScheduleField.write(m.schedule(), out);
+        return out;
     }
 
     private static Map<String, Object> run(Scene s) {

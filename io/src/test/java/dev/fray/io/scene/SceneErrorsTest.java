@@ -1,11 +1,14 @@
 package dev.fray.io.scene;
 
+import dev.fray.core.boundary.VelocitySchedule;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.plugin.PluginRegistry;
 import dev.fray.core.testing.FrayTestBase;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.CsvSource;
 
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
@@ -14,6 +17,7 @@ import java.nio.file.Path;
 import java.util.List;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertSame;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assertions.fail;
@@ -237,6 +241,59 @@ class SceneErrorsTest extends FrayTestBase {
         at(p.get(5), "bodies[0].initialValues[3].regoin", 19, "did you mean \"region\"");
         at(p.get(6), "grips[0].region.halfAngle", 23, "(0, 1.5707963267948966) rad");
         at(p.get(7), "grips[0].region.depth", 23, "> 0 m");
+    }
+
+    /** The valid scene with a motion on its grip (line 16). */
+    private static String gripMotion(String motion) {
+        return valid().replace("\"normal\": [0, -1, 0]}}]",
+                "\"normal\": [0, -1, 0]}, \"motion\": " + motion + "}]");
+    }
+
+    private static final String KNOTS = "{\"velocity\": [0, 0.1, 0], \"schedule\": ";
+
+    /**
+     * docs/scene-format.md, "motion": knot times at least 0 and strictly increasing, finite factors, a knot or more.
+     * Each case: the motion, the path of the problem, words of its message.
+     */
+    @ParameterizedTest
+    @CsvSource(delimiter = '|', value = {
+        "[[0, 0], [0.2, 1], [0.1, 1]]} | schedule[2][0] | 0.1 s;strictly increasing;> 0.2 s;knot 1",
+        "[[0, 0], [0.2, 1], [0.2, 0]]} | schedule[2][0] | strictly increasing",
+        "[[0, 0], [0.2, 1e999]]}       | schedule[1][1] | finite;1e999",
+        "[[0, 0], [-1e999, 1]]}        | schedule[1][0] | finite;-1e999",
+        "[]}                           | schedule       | at least one knot",
+        "[[-0.1, 0], [0.2, 1]]}        | schedule[0][0] | -0.1;>= 0 s",
+        "[[0, 0, 1]]}                  | schedule[0]    | [time (s), factor];a list of 3",
+        "{\"velocity\": [0, 0.1, 0], \"ramp\": 0}          | ramp | > 0 s",
+        "{\"ramp\": 0.1, \"schedule\": [[0, 1]]}          | ramp | either \"ramp\" or \"schedule\""})
+    void badSchedulesAreLocated(String motion, String path, String words) throws IOException {
+        String m = motion.startsWith("{") ? motion : KNOTS + motion;
+        SceneProblem p = only(fails("schedule.json", gripMotion(m)));
+        at(p, "grips[0].motion." + path, 16, words.split(";"));
+    }
+
+    @Test
+    void scheduleProblemsComeTogether() throws IOException {
+        // NaN is not JSON: the parser stops at it, with its line.
+        SceneProblem p = only(fails("nan.json", gripMotion(KNOTS + "[[0, 0], [0.2, NaN]]}")));
+        assertEquals(16, p.line(), p.toString());
+        assertTrue(p.message().startsWith("not valid JSON"), p.toString());
+        SceneFileException e = fails("two.json", gripMotion(KNOTS + "[[0, \"up\"], [0.2, 1], [0.1, 1e999]]}"));
+        assertEquals(List.of("grips[0].motion.schedule[0][1]", "grips[0].motion.schedule[2][0]",
+                "grips[0].motion.schedule[2][1]"), e.problems().stream().map(SceneProblem::path).toList(),
+                "every bad knot is reported at once");
+    }
+
+    @Test
+    void schedulesRead() throws IOException {
+        LoadedScene s = READER.read(write("ramp.json", gripMotion("{\"velocity\": [0, 0.2, 0], \"ramp\": 0.1}")));
+        assertEquals(VelocitySchedule.ramp(0.1), s.scene().grips().get(0).motion().schedule());
+        s = READER.read(write("knots.json", gripMotion("{\"velocity\": [0, 0.2, 0], "
+                + "\"schedule\": [[0, 0], [0.1, 1], [2, 1], [2.05, 0]]}")));
+        VelocitySchedule k = s.scene().grips().get(0).motion().schedule();
+        assertEquals(VelocitySchedule.of(new double[] {0, 0.1, 2, 2.05}, new double[] {0, 1, 1, 0}), k);
+        s = READER.read(write("none.json", gripMotion("{\"velocity\": [0, 0.2, 0]}")));
+        assertSame(VelocitySchedule.constant(), s.scene().grips().get(0).motion().schedule());
     }
 
     @Test

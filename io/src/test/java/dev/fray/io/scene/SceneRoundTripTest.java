@@ -5,6 +5,7 @@ import dev.fray.core.boundary.Grip;
 import dev.fray.core.boundary.Motion;
 import dev.fray.core.boundary.Obstacle;
 import dev.fray.core.boundary.Shapes;
+import dev.fray.core.boundary.VelocitySchedule;
 import dev.fray.core.kernel.Kernel;
 import dev.fray.core.material.MaterialLaw;
 import dev.fray.core.plugin.PluginRegistry;
@@ -80,8 +81,11 @@ class SceneRoundTripTest extends FrayTestBase {
                 .add(block).add(inner).add(outer)
                 .add(new Obstacle("floor", Shapes.halfSpace(0, 0.05, 0, 0, 1, 0), Contact.slip(0.3), null))
                 .add(new Obstacle("pusher", Shapes.sphere(0.8, 0.6, 0.2, 0.08), Contact.sticky(),
-                        Motion.linear(-0.2, 0, 0.1).withRotation(0, 1, 0, 0.8, 0.6, 0.2)))
-                .add(new Grip("hold", "block", Shapes.box(0.1, 0.2, 0.1, 0.15, 0.35, 0.3), Motion.linear(0, 0.1, 0)))
+                        Motion.linear(-0.2, 0, 0.1).withRotation(0, 1, 0, 0.8, 0.6, 0.2)
+                                .withSchedule(VelocitySchedule.ramp(0.25))))
+                .add(new Grip("hold", "block", Shapes.box(0.1, 0.2, 0.1, 0.15, 0.35, 0.3), Motion.linear(0, 0.1, 0)
+                        .withSchedule(VelocitySchedule.of(new double[] {0, 0.1, 2, 2.05},
+                                new double[] {0, 1, 1, -0.0}))))
                 .kernel(Kernel.CUBIC)
                 .cfl(0.3)
                 .damping(0.5)
@@ -104,6 +108,8 @@ class SceneRoundTripTest extends FrayTestBase {
         LoadedScene back = new SceneReader(REGISTRY).read(json.getBytes(StandardCharsets.UTF_8), "round.json", tmp);
         assertSameScene(original, back);
         assertEquals(json, SceneWriter.toJson(back), "writing the read scene gives the same text");
+        assertTrue(json.contains("\"schedule\": [[0, 0], [0.1, 1], [2, 1], [2.05, -0.0]]"), json);
+        assertTrue(json.contains("\"schedule\": [[0, 0], [0.25, 1]]"), json);
     }
 
     @Test
