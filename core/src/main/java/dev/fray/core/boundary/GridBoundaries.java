@@ -33,6 +33,8 @@ public final class GridBoundaries {
     private final double[] obstaclePose;
     private final double[] gripPose;
     private final double[] scratchPose = new double[12];
+    /** Mean velocity-schedule factor of each grip, then each obstacle, over the current step. */
+    private final double[] factor;
     private int[] gripTags = new int[0];
 
     /**
@@ -57,6 +59,7 @@ public final class GridBoundaries {
         this.grips = grips.toArray(new Grip[0]);
         this.obstaclePose = new double[12 * this.obstacles.length];
         this.gripPose = new double[12 * this.grips.length];
+        this.factor = new double[this.grips.length + this.obstacles.length];
     }
 
     /** @return number of grips */
@@ -90,18 +93,22 @@ public final class GridBoundaries {
     }
 
     /**
-     * Poses of the grips and obstacles at the start of the step.
+     * Poses of the grips and obstacles at the start of the step, and the factor their velocity schedules give over
+     * the step: the mean (S(t + h) - S(t)) / h, so that a driven node moves exactly as the schedule's integral says.
      *
      * @param time the step's start time, s
+     * @param h    the step, s
      */
-    public void begin(double time) {
+    public void begin(double time, double h) {
         for (int i = 0; i < obstacles.length; i++) {
             obstacles[i].motion().pose(time, scratchPose);
             System.arraycopy(scratchPose, 0, obstaclePose, 12 * i, 12);
+            factor[grips.length + i] = obstacles[i].motion().meanFactor(time, time + h);
         }
         for (int i = 0; i < grips.length; i++) {
             grips[i].motion().pose(time, scratchPose);
             System.arraycopy(scratchPose, 0, gripPose, 12 * i, 12);
+            factor[i] = grips[i].motion().meanFactor(time, time + h);
         }
     }
 
@@ -154,7 +161,7 @@ public final class GridBoundaries {
         int grip = gripTags[node];
         double work;
         if (grip != Integer.MAX_VALUE) {
-            frameVelocity(grips[grip].motion(), gripPose, 12 * grip, px, py, pz, gv, n3);
+            frameVelocity(grips[grip].motion(), factor[grip], gripPose, 12 * grip, px, py, pz, gv, n3);
             // Work of the grip: its impulse on the node times the velocity it imposes.
             work = m * ((gv[n3] - vx0) * gv[n3] + (gv[n3 + 1] - vy0) * gv[n3 + 1]
                     + (gv[n3 + 2] - vz0) * gv[n3 + 2]);
@@ -190,7 +197,7 @@ public final class GridBoundaries {
         double work = 0;
         for (int o = 0; o < obstacles.length; o++) {
             Obstacle ob = obstacles[o];
-            if (obstacleContactFrame(ob, obstaclePose, 12 * o, px, py, pz, nrm) > 0) {
+            if (obstacleContactFrame(ob, factor[grips.length + o], obstaclePose, 12 * o, px, py, pz, nrm) > 0) {
                 continue;
             }
             double vx0 = gv[n3], vy0 = gv[n3 + 1], vz0 = gv[n3 + 2];
@@ -255,7 +262,8 @@ public final class GridBoundaries {
         }
         for (int o = 0; o < obstacles.length; o++) {
             Obstacle ob = obstacles[o];
-            if (ob.contact().acts() && obstacleContactFrame(ob, obstaclePose, 12 * o, px, py, pz, nrm) <= 0) {
+            if (ob.contact().acts()
+                    && obstacleContactFrame(ob, factor[grips.length + o], obstaclePose, 12 * o, px, py, pz, nrm) <= 0) {
                 removeConstrained(ob.contact(), dv, n3, nrm);
                 any = true;
             }
@@ -280,12 +288,13 @@ public final class GridBoundaries {
      * Signed distance of a point to an obstacle in the given pose; where it is not positive, also the obstacle's
      * outward normal (world frame, nrm[0..2]) and its velocity at the point (nrm[6..8]).
      *
-     * @param pose poses, 12 per obstacle (rotation row-major, then the pivot's position)
-     * @param q    offset of the obstacle's pose
+     * @param factor the obstacle's velocity-schedule factor over the step
+     * @param pose   poses, 12 per obstacle (rotation row-major, then the pivot's position)
+     * @param q      offset of the obstacle's pose
      * @return signed distance, m
      */
-    static double obstacleContactFrame(Obstacle ob, double[] pose, int q, double px, double py, double pz,
-                                       double[] nrm) {
+    static double obstacleContactFrame(Obstacle ob, double factor, double[] pose, int q, double px, double py,
+                                       double pz, double[] nrm) {
         Motion mo = ob.motion();
         // Point in the obstacle's frame at time 0: x0 = c0 + R^T (x - c(t)).
         double rx = px - pose[q + 9], ry = py - pose[q + 10], rz = pz - pose[q + 11];
@@ -300,16 +309,16 @@ public final class GridBoundaries {
         nrm[0] = pose[q] * nrm[3] + pose[q + 1] * nrm[4] + pose[q + 2] * nrm[5];
         nrm[1] = pose[q + 3] * nrm[3] + pose[q + 4] * nrm[4] + pose[q + 5] * nrm[5];
         nrm[2] = pose[q + 6] * nrm[3] + pose[q + 7] * nrm[4] + pose[q + 8] * nrm[5];
-        frameVelocity(mo, pose, q, px, py, pz, nrm, 6);
+        frameVelocity(mo, factor, pose, q, px, py, pz, nrm, 6);
         return dist;
     }
 
-    /** Velocity of a moving frame at a point: v + w x (x - c(t)). */
-    static void frameVelocity(Motion mo, double[] pose, int q, double px, double py, double pz, double[] out,
-                              int off) {
+    /** Velocity of a moving frame at a point: s (v + w x (x - c(t))), s the schedule's factor over the step. */
+    static void frameVelocity(Motion mo, double s, double[] pose, int q, double px, double py, double pz,
+                              double[] out, int off) {
         double rx = px - pose[q + 9], ry = py - pose[q + 10], rz = pz - pose[q + 11];
-        out[off] = mo.vx() + mo.wy() * rz - mo.wz() * ry;
-        out[off + 1] = mo.vy() + mo.wz() * rx - mo.wx() * rz;
-        out[off + 2] = mo.vz() + mo.wx() * ry - mo.wy() * rx;
+        out[off] = s * (mo.vx() + mo.wy() * rz - mo.wz() * ry);
+        out[off + 1] = s * (mo.vy() + mo.wz() * rx - mo.wx() * rz);
+        out[off + 2] = s * (mo.vz() + mo.wx() * ry - mo.wy() * rx);
     }
 }

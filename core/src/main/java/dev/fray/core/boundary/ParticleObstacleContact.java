@@ -23,6 +23,8 @@ public final class ParticleObstacleContact {
     /** World boxes (6 per obstacle) at the end of the step, m; a block whose buffer misses all skips the check. */
     private final double[] boxEnd;
     private final double[] scratchPose = new double[12];
+    /** Mean velocity-schedule factor of each obstacle over the step. */
+    private final double[] factor;
     private boolean[] blockTouches = new boolean[64];
     private boolean touching;
 
@@ -39,16 +41,20 @@ public final class ParticleObstacleContact {
         this.dx = dx;
         this.poseEnd = new double[12 * this.obstacles.length];
         this.boxEnd = new double[6 * this.obstacles.length];
+        this.factor = new double[this.obstacles.length];
     }
 
     /**
-     * Poses and world boxes of the obstacles at time t + h, and which blocks' buffers reach one.
+     * Poses and world boxes of the obstacles at time t + h, their schedule factors over the step, and which blocks'
+     * buffers reach one.
      *
-     * @param endTime the step's end time, s
-     * @param layout  the particle blocks
+     * @param time   the step's start time t, s
+     * @param h      the step, s
+     * @param layout the particle blocks
      * @return whether any block reaches an obstacle
      */
-    public boolean prepare(double endTime, BlockLayout layout) {
+    public boolean prepare(double time, double h, BlockLayout layout) {
+        double endTime = time + h;
         touching = false;
         if (obstacles.length == 0) {
             return false;
@@ -56,6 +62,7 @@ public final class ParticleObstacleContact {
         for (int i = 0; i < obstacles.length; i++) {
             Obstacle ob = obstacles[i];
             ob.motion().pose(endTime, scratchPose);
+            factor[i] = ob.motion().meanFactor(time, endTime);
             System.arraycopy(scratchPose, 0, poseEnd, 12 * i, 12);
             worldBox(ob, scratchPose, boxEnd, 6 * i);
         }
@@ -116,7 +123,7 @@ public final class ParticleObstacleContact {
                     || px > boxEnd[b + 3] || py > boxEnd[b + 4] || pz > boxEnd[b + 5]) {
                 continue;
             }
-            double dist = GridBoundaries.obstacleContactFrame(ob, poseEnd, 12 * o, px, py, pz, nrm);
+            double dist = GridBoundaries.obstacleContactFrame(ob, factor[o], poseEnd, 12 * o, px, py, pz, nrm);
             if (dist > 0) {
                 continue;
             }

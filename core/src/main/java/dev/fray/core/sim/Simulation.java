@@ -123,6 +123,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         particleView = new StoreView(store);
         gridView = new FieldGridView(grid, fields, origin, dx);
         integrator.setMaxSpeed(currentMaxSpeed());
+        ctx.tallies().setInitialEnergy(meter.measure(0).totalEnergy());
     }
 
     private void declareChannels(MaterialLaw[] laws, DamageModel[] damage) {

@@ -104,7 +104,7 @@ public final class ExplicitStep implements Integrator {
     private void gather(double h) {
         BlockLayout layout = ctx.layout();
         ParticleObstacleContact contact = ctx.particleContact();
-        boolean touching = contact.prepare(ctx.time + h, layout);
+        boolean touching = contact.prepare(ctx.time, h, layout);
         g2p.prepare();
         FieldRouting routing = ctx.routing();
         ctx.workers().forEach(layout.blockCount(), (w, r) -> {

@@ -35,7 +35,7 @@ final class GridVelocityUpdate {
         double[] g = ctx.scene().gravity();
         double gx = g[0] * h, gy = g[1] * h, gz = g[2] * h;
         double decay = Math.exp(-ctx.scene().damping() * h);
-        bounds.begin(ctx.time);
+        bounds.begin(ctx.time, h);
         int tasks = Reductions.gridTasks(gb);
         int acc = bounds.accumulatorLength();
         if (partial.length < 3 * tasks) {

@@ -23,6 +23,7 @@ public final class Tallies {
     private final int grips;
     private final int obstacles;
     double boundaryWork;
+    double initialEnergy;
     double dampingLoss;
     double contactLoss;
     /** Per grip then obstacle: impulse x, y, z of the last step (N s) and work since the start (J). */
@@ -49,6 +50,20 @@ public final class Tallies {
         return boundaryWork;
     }
 
+    /** @return kinetic + elastic + potential energy when the simulation was created, J */
+    public double initialEnergy() {
+        return initialEnergy;
+    }
+
+    /**
+     * Sets the initial energy (once, when the simulation is created).
+     *
+     * @param e J
+     */
+    public void setInitialEnergy(double e) {
+        initialEnergy = e;
+    }
+
     /** @return kinetic energy removed by velocity damping since the start, J */
     public double dampingLoss() {
         return dampingLoss;
@@ -68,13 +83,17 @@ public final class Tallies {
         return perBoundary[4 * i + k];
     }
 
-    /** @return every value in a fixed order (the three sums, then per boundary), for checkpoints */
+    /**
+     * @return every value in a fixed order (boundary work, damping loss, contact loss, initial energy, then per
+     *         boundary), for checkpoints
+     */
     public double[] toArray() {
-        double[] a = new double[3 + perBoundary.length];
+        double[] a = new double[4 + perBoundary.length];
         a[0] = boundaryWork;
         a[1] = dampingLoss;
         a[2] = contactLoss;
-        System.arraycopy(perBoundary, 0, a, 3, perBoundary.length);
+        a[3] = initialEnergy;
+        System.arraycopy(perBoundary, 0, a, 4, perBoundary.length);
         return a;
     }
 
@@ -87,9 +106,12 @@ public final class Tallies {
         boundaryWork = a.length > 0 ? a[0] : 0;
         dampingLoss = a.length > 1 ? a[1] : 0;
         contactLoss = a.length > 2 ? a[2] : 0;
-        Arrays.fill(perBoundary, 0);
         if (a.length > 3) {
-            System.arraycopy(a, 3, perBoundary, 0, Math.min(perBoundary.length, a.length - 3));
+            initialEnergy = a[3];
+        }
+        Arrays.fill(perBoundary, 0);
+        if (a.length > 4) {
+            System.arraycopy(a, 4, perBoundary, 0, Math.min(perBoundary.length, a.length - 4));
         }
     }
 }

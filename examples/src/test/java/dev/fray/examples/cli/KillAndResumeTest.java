@@ -155,8 +155,9 @@ class KillAndResumeTest {
                 } else if (n.equals("diagnostics.csv")) {
                     List<String> lines = Files.readAllLines(f);
                     assertTrue(lines.get(0).startsWith("step,time_s,"), n);
+                    int columns = lines.get(0).split(",", -1).length;
                     for (String line : lines) {
-                        assertEquals(14, line.split(",", -1).length, line);
+                        assertEquals(columns, line.split(",", -1).length, line);
                     }
                 } else if (CheckpointListener.FILE_PATTERN.matcher(n).matches()) {
                     assertTrue(CheckpointReader.read(f).state().size() > 0);

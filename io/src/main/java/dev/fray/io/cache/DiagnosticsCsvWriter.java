@@ -17,7 +17,8 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 
 /**
- * Step listener that records {@link Diagnostics} as CSV: a header of {@link Diagnostics#COLUMNS} (names carry the
+ * Step listener that records {@link Diagnostics} as CSV: a header of {@link Diagnostics#columns()} (the
+ * scene-independent {@link Diagnostics#COLUMNS}, then force and work columns per grip and obstacle; names carry the
  * SI unit), then one row per recorded step. Doubles are written with {@link Double#toString(double)}, which
  * round-trips exactly; the step column is an integer.
  *
@@ -83,7 +84,7 @@ public final class DiagnosticsCsvWriter implements StepListener {
                     Files.copy(target, pending.stream());
                 } else {
                     rows = 0;
-                    write(String.join(",", Diagnostics.COLUMNS) + "\n");
+                    write(String.join(",", view.diagnostics().columns()) + "\n");
                 }
             } catch (IOException e) {
                 pending.close();

@@ -28,6 +28,12 @@ import java.nio.charset.StandardCharsets;
 final class CheckpointFormat {
     /** Format version written; the reader accepts exactly this one. */
     static final int VERSION = 2;
+    /**
+     * Name of the attachment holding the run's energy and boundary tallies (damping loss, contact loss, initial
+     * energy, then impulse and work per grip and obstacle; little-endian doubles). A checkpoint without it resumes
+     * with the tallies restarted at 0; readers hand it to the state, not to the caller's attachments.
+     */
+    static final String TALLIES = "fray.tallies";
     static final byte[] MAGIC = {(byte) 0x89, 'F', 'R', 'A', 'Y', 'C', 'P', 0x0A};
     static final int HEADER_BYTES = 20;
     static final int RUNS_BYTES = 56;

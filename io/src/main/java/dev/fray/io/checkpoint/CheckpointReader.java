@@ -302,12 +302,23 @@ public final class CheckpointReader {
             if (in.read() >= 0 || pos != size) {
                 throw bad("unexpected bytes after the last of the " + sections + " sections");
             }
+            attachmentSizes.remove(CheckpointFormat.TALLIES);
             if (!keep) {
                 return new Info(version, scene, time, step, dt, frame, n, List.copyOf(entries),
                         java.util.Collections.unmodifiableMap(attachmentSizes), size);
             }
+            byte[] talliesBytes = attachments.remove(CheckpointFormat.TALLIES);
+            double[] tallies = new double[0];
+            if (talliesBytes != null) {
+                if (talliesBytes.length % 8 != 0) {
+                    throw bad("the tallies attachment holds " + talliesBytes.length
+                            + " bytes, not a whole number of doubles: the file is corrupt");
+                }
+                tallies = new double[talliesBytes.length / 8];
+                ByteBuffer.wrap(talliesBytes).order(ByteOrder.LITTLE_ENDIAN).asDoubleBuffer().get(tallies);
+            }
             SimulationState state = new SimulationState(time, step, dt, frame, zeroSent == 1, maxSpeed, work,
-                    channels, body, ids, blockKeys, blockStarts);
+                    channels, body, ids, blockKeys, blockStarts, tallies);
             return new Checkpoint(scene, state, attachments);
         }
 

@@ -56,8 +56,16 @@ public final class CheckpointWriter {
         ByteBuffer buf = ByteBuffer.allocate(CHUNK).order(ByteOrder.LITTLE_ENDIAN);
 
         ByteBuffer header = ByteBuffer.allocate(CheckpointFormat.HEADER_BYTES).order(ByteOrder.LITTLE_ENDIAN);
+        Map<String, byte[]> attachments = new java.util.LinkedHashMap<>(c.attachments());
+        if (s.tallies().length > 0) {
+            ByteBuffer t = ByteBuffer.allocate(8 * s.tallies().length).order(ByteOrder.LITTLE_ENDIAN);
+            for (double v : s.tallies()) {
+                t.putDouble(v);
+            }
+            attachments.put(CheckpointFormat.TALLIES, t.array());
+        }
         header.put(CheckpointFormat.MAGIC).putInt(CheckpointFormat.VERSION)
-                .putInt(CheckpointFormat.FIXED_SECTIONS + channels.size() + c.attachments().size());
+                .putInt(CheckpointFormat.FIXED_SECTIONS + channels.size() + attachments.size());
         CRC32C crc = new CRC32C();
         crc.update(header.array(), 0, 16);
         header.putInt((int) crc.getValue());
@@ -113,7 +121,7 @@ public final class CheckpointWriter {
             }
             ch.end();
         }
-        for (Map.Entry<String, byte[]> e : c.attachments().entrySet()) {
+        for (Map.Entry<String, byte[]> e : attachments.entrySet()) {
             byte[] name = e.getKey().getBytes(StandardCharsets.UTF_8);
             Section at = new Section(out, buf, CheckpointFormat.ATTACHMENT, 2L + name.length + e.getValue().length);
             at.name(e.getKey());
