@@ -9,11 +9,10 @@ import dev.fray.core.material.MaterialState;
  * <pre>
  *   psi = mu/2 (tr(F^T F) - 3) - mu ln J + lambda/2 (ln J)^2
  *   P   = mu (F - F^-T) + lambda ln J F^-T
- *   tau = mu (F F^T - I) + lambda ln J I
  * </pre>
- * with J = det F and the Lamé parameters from Young's modulus and Poisson ratio, mu = E / (2 (1 + nu)) and
- * lambda = E nu / ((1 + nu)(1 - 2 nu)). Not defined for J &lt;= 0 (no inversion handling): test scenes stay far from it.
- * Stresses in Pa, energy densities in J/m^3.
+ * and tau = P F^T (the interface's default), with J = det F and the Lamé parameters from Young's modulus and
+ * Poisson ratio, mu = E / (2 (1 + nu)) and lambda = E nu / ((1 + nu)(1 - 2 nu)). Not defined for J &lt;= 0 (no
+ * inversion handling): test scenes stay far from it. Stresses in Pa, energy densities in J/m^3.
  */
 public final class SimpleNeoHookean implements MaterialLaw {
     private final double mu;
@@ -75,23 +74,6 @@ public final class SimpleNeoHookean implements MaterialLaw {
                     int s1 = (s + 1) % 3, s2 = (s + 2) % 3;
                     double cof = f[i + r1 + s1] * f[i + r2 + s2] - f[i + r1 + s2] * f[i + r2 + s1];
                     out[o + 3 * r + s] = mu * f[i + 3 * r + s] + c * cof;
-                }
-            }
-        }
-    }
-
-    @Override
-    public void kirchhoffStress(MaterialState state, int from, int to, double[] out) {
-        double[] f = state.deformation();
-        for (int p = from; p < to; p++) {
-            int i = 9 * p;
-            int o = 9 * (p - from);
-            double vol = lambda * Math.log(det(f, i));
-            for (int r = 0; r < 3; r++) {
-                for (int s = 0; s < 3; s++) {
-                    double b = f[i + 3 * r] * f[i + 3 * s] + f[i + 3 * r + 1] * f[i + 3 * s + 1]
-                            + f[i + 3 * r + 2] * f[i + 3 * s + 2];
-                    out[o + 3 * r + s] = mu * (b - (r == s ? 1 : 0)) + (r == s ? vol : 0);
                 }
             }
         }
