@@ -90,7 +90,10 @@ public final class SparseGrid {
         return map.get(key);
     }
 
-    /** Sizes the node arrays for the active blocks (growing only) and zeroes them. Call after activation. */
+    /**
+     * Sizes the node arrays for the active blocks (growing only). Call after activation. Arrays that are reused keep
+     * their old values, so the caller zeroes the nodes ({@link #zero}) before scattering into them.
+     */
     public void allocateNodes() {
         int nodes = blocks * NODES_PER_BLOCK;
         if (mass.length < nodes) {
