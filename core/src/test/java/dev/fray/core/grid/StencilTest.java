@@ -53,8 +53,8 @@ class StencilTest extends FrayTestBase {
             double[] gradSum = new double[3];
             double[][] gradMoment = new double[3][3];
             for (int k = 0; k < n; k++) {
-                double[] r = {(st.bx + k / (s * s)) * DX + ORIGIN[0] - x[0], (st.by + (k / s) % s) * DX + ORIGIN[1] - x[1],
-                    (st.bz + k % s) * DX + ORIGIN[2] - x[2]};
+                double[] r = {(st.bx + k / (s * s)) * DX + ORIGIN[0] - x[0],
+                    (st.by + (k / s) % s) * DX + ORIGIN[1] - x[1], (st.bz + k % s) * DX + ORIGIN[2] - x[2]};
                 sum += w[k];
                 for (int a = 0; a < 3; a++) {
                     first[a] += w[k] * r[a];
@@ -151,7 +151,8 @@ class StencilTest extends FrayTestBase {
                             }
                         }
                         if (fx.layout.node(r, local[0], local[1], local[2]) != st.node(fx.layout, r, lb, k)) {
-                            fail("BlockLayout.node and Stencil.node disagree at stencil node " + k + " of particle " + p);
+                            fail("BlockLayout.node and Stencil.node disagree at stencil node " + k + " of particle "
+                                    + p);
                         }
                     }
                 }

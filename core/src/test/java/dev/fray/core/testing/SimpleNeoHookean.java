@@ -80,7 +80,8 @@ public final class SimpleNeoHookean implements MaterialLaw {
     }
 
     private static double det(double[] f, int i) {
-        return f[i] * (f[i + 4] * f[i + 8] - f[i + 5] * f[i + 7]) - f[i + 1] * (f[i + 3] * f[i + 8] - f[i + 5] * f[i + 6])
+        return f[i] * (f[i + 4] * f[i + 8] - f[i + 5] * f[i + 7])
+                - f[i + 1] * (f[i + 3] * f[i + 8] - f[i + 5] * f[i + 6])
                 + f[i + 2] * (f[i + 3] * f[i + 7] - f[i + 4] * f[i + 6]);
     }
 }
