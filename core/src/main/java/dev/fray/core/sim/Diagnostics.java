@@ -7,14 +7,14 @@ import java.util.List;
  * Whole-scene quantities at one instant, computed over the particles with a fixed partition so the values are
  * bitwise the same for every thread count.
  *
- * <p>Energy balance: kinetic + elastic + potential + damping loss + contact loss + damage released = initial
+ * <p>Energy balance: kinetic (translational and affine) + elastic + potential + damping loss + contact loss + damage released = initial
  * energy + boundary work + residual. The residual is what no column accounts for: the transfers' own dissipation
  * (grid-to-particle averaging at impacts, a real effect of the method) and time-integration error.
  *
  * @param step            steps taken
  * @param time            simulated time, s
  * @param dt              last time step, s (0 before the first step)
- * @param kineticEnergy   sum m |v|^2 / 2 (translational; the affine part is in the angular momentum only), J
+ * @param kineticEnergy   sum m |v|^2 / 2 (translational), J
  * @param elasticEnergy   sum V0 psi(F), J (psi degraded by damage: g psi_degraded + psi_kept)
  * @param momentumX       linear momentum x, kg m/s
  * @param momentumY       linear momentum y, kg m/s
@@ -24,6 +24,10 @@ import java.util.List;
  * @param angularZ        angular momentum z
  * @param maxSpeed        largest particle speed, m/s
  * @param potentialEnergy gravitational potential energy -sum m g . x (zero at the origin), J
+ * @param affineEnergy    the affine (APIC) part of the kinetic energy, sum m D |C|^2 / 2 with D the kernel's
+ *                        inertia scale (dx^2 / 4 for the quadratic B-spline) and |C| the Frobenius norm of the affine
+ *                        matrix: with it the kinetic energy is that of the velocity field the particles scatter to
+ *                        the grid (Jiang et al. 2015), J
  * @param boundaryWork    work done on the material by grips and moving obstacles since the start (impulse on
  *                        each grid node times the velocity the boundary imposes there), J; still walls and
  *                        obstacles do none, friction only dissipates
@@ -42,14 +46,15 @@ import java.util.List;
 public record Diagnostics(long step, double time, double dt, double kineticEnergy, double elasticEnergy,
                           double momentumX, double momentumY, double momentumZ,
                           double angularX, double angularY, double angularZ, double maxSpeed,
-                          double potentialEnergy, double boundaryWork, double dampingLoss, double contactLoss,
+                          double potentialEnergy, double affineEnergy, double boundaryWork, double dampingLoss,
+                          double contactLoss,
                           double damageReleased, double initialEnergy, double damagedFraction, double maxDamage,
                           List<BoundaryLoad> loads) {
     /** Column names of the scene-independent values for tabular output, in {@link #values()} order, SI units. */
     public static final String[] COLUMNS = {"step", "time_s", "dt_s", "kinetic_energy_J", "elastic_energy_J",
         "momentum_x_kg_m_per_s", "momentum_y_kg_m_per_s", "momentum_z_kg_m_per_s",
         "angular_momentum_x_kg_m2_per_s", "angular_momentum_y_kg_m2_per_s", "angular_momentum_z_kg_m2_per_s",
-        "max_speed_m_per_s", "potential_energy_J", "boundary_work_J", "damping_loss_J", "contact_loss_J",
+        "max_speed_m_per_s", "potential_energy_J", "affine_kinetic_energy_J", "boundary_work_J", "damping_loss_J", "contact_loss_J",
         "damage_released_J", "energy_residual_J", "damaged_volume_fraction", "max_damage"};
 
     /** Freezes the loads. */
@@ -57,9 +62,9 @@ public record Diagnostics(long step, double time, double dt, double kineticEnerg
         loads = loads == null ? List.of() : List.copyOf(loads);
     }
 
-    /** @return kinetic + elastic + potential energy, J */
+    /** @return kinetic (translational and affine) + elastic + potential energy, J */
     public double totalEnergy() {
-        return kineticEnergy + elasticEnergy + potentialEnergy;
+        return kineticEnergy + affineEnergy + elasticEnergy + potentialEnergy;
     }
 
     /**
@@ -89,7 +94,7 @@ public record Diagnostics(long step, double time, double dt, double kineticEnerg
     /** @return the values in {@link #columns()} order */
     public double[] values() {
         double[] fixed = {step, time, dt, kineticEnergy, elasticEnergy, momentumX, momentumY, momentumZ,
-            angularX, angularY, angularZ, maxSpeed, potentialEnergy, boundaryWork, dampingLoss, contactLoss,
+            angularX, angularY, angularZ, maxSpeed, potentialEnergy, affineEnergy, boundaryWork, dampingLoss, contactLoss,
             damageReleased, energyResidual(), damagedFraction, maxDamage};
         double[] v = new double[fixed.length + 4 * loads.size()];
         System.arraycopy(fixed, 0, v, 0, fixed.length);

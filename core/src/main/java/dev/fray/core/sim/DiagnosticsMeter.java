@@ -19,7 +19,7 @@ import java.util.List;
  */
 final class DiagnosticsMeter {
     private static final int CHUNK = BlockLayout.PARTICLE_CHUNK;
-    private static final int VALUES = 14;
+    private static final int VALUES = 15;
     private final StepContext ctx;
     private final ConstitutiveUpdate constitutive;
     private final double inertia;
@@ -46,13 +46,20 @@ final class DiagnosticsMeter {
             double[] m = store.mass();
             double[] vol = store.volume();
             int[] body = store.body();
-            double ke = 0, ee = 0, px = 0, py = 0, pz = 0, lx = 0, ly = 0, lz = 0, vmax = 0, pe = 0;
+            double ke = 0, ka = 0, ee = 0, px = 0, py = 0, pz = 0, lx = 0, ly = 0, lz = 0, vmax = 0, pe = 0;
             for (int p = a; p < b; p++) {
                 double mp = m[p];
                 double vx = v[3 * p], vy = v[3 * p + 1], vz = v[3 * p + 2];
                 double rx = x[3 * p], ry = x[3 * p + 1], rz = x[3 * p + 2];
                 double s2 = vx * vx + vy * vy + vz * vz;
+                int c9 = 9 * p;
+                double cc = 0;
+                for (int k = 0; k < 9; k++) {
+                    cc += c[c9 + k] * c[c9 + k];
+                }
                 ke += 0.5 * mp * s2;
+                // The affine part m D |C|^2 / 2 is what the grid sees of the velocity gradient.
+                ka += 0.5 * mp * inertia * cc;
                 pe -= mp * (gravity[0] * rx + gravity[1] * ry + gravity[2] * rz);
                 vmax = Math.max(vmax, s2);
                 px += mp * vx;
@@ -106,6 +113,7 @@ final class DiagnosticsMeter {
             part[o + 11] = broken;
             part[o + 12] = total;
             part[o + 13] = dmax;
+            part[o + 14] = ka;
         });
         double[] sum = new double[VALUES];
         for (int t = 0; t < tasks; t++) {
@@ -118,6 +126,7 @@ final class DiagnosticsMeter {
                 sum[k] += part[VALUES * t + k];
             }
             sum[13] = Math.max(sum[13], part[VALUES * t + 13]);
+            sum[14] += part[VALUES * t + 14];
         }
         Tallies tl = ctx.tallies();
         List<BoundaryLoad> loads = new ArrayList<>();
@@ -131,7 +140,7 @@ final class DiagnosticsMeter {
                     tl.boundary(i, 0) * inv, tl.boundary(i, 1) * inv, tl.boundary(i, 2) * inv, tl.boundary(i, 3)));
         }
         return new Diagnostics(ctx.step(), ctx.time(), dt, sum[0], sum[1], sum[2], sum[3], sum[4], sum[5], sum[6],
-                sum[7], Math.sqrt(sum[8]), sum[9], tl.boundaryWork(), tl.dampingLoss(), tl.contactLoss(), sum[10],
+                sum[7], Math.sqrt(sum[8]), sum[9], sum[14], tl.boundaryWork(), tl.dampingLoss(), tl.contactLoss(), sum[10],
                 tl.initialEnergy(), sum[12] > 0 ? sum[11] / sum[12] : 0, sum[13], loads);
     }
 }

@@ -2,6 +2,7 @@ package dev.fray.core.step;
 
 import dev.fray.core.boundary.GridBoundaries;
 import dev.fray.core.boundary.ParticleObstacleContact;
+import dev.fray.core.boundary.WallHold;
 import dev.fray.core.grid.BlockLayout;
 import dev.fray.core.grid.FieldSet;
 import dev.fray.core.parallel.Reductions;
@@ -46,7 +47,8 @@ public final class ExplicitStep implements Integrator {
         this.p2g = new ParticleToGrid(ctx.store(), ctx.layout(), ctx.fields(), ctx.stencils(), ctx.workspaces(),
                 workers, ctx.scene().kernel(), ctx.scene().cellSize());
         this.g2p = new GridToParticle(ctx.store(), ctx.layout(), ctx.fields(), ctx.stencils(), workers.threads(),
-                ctx.scene().kernel(), ctx.origin(), ctx.scene().cellSize(), ctx.particleContact());
+                ctx.scene().kernel(), ctx.origin(), ctx.scene().cellSize(), ctx.particleContact(),
+                new WallHold(ctx.scene().domain(), ctx.scene().walls(), ctx.scene().cellSize()));
         this.gridUpdate = new GridVelocityUpdate(ctx);
         this.particleUpdate = new ParticleUpdate(ctx);
         boolean pf = false;

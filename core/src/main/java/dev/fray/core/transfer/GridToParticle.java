@@ -1,6 +1,7 @@
 package dev.fray.core.transfer;
 
 import dev.fray.core.boundary.ParticleObstacleContact;
+import dev.fray.core.boundary.WallHold;
 import dev.fray.core.grid.BlockLayout;
 import dev.fray.core.grid.FieldSet;
 import dev.fray.core.grid.SparseGrid;
@@ -29,6 +30,7 @@ public final class GridToParticle {
     private final Kernel kernel;
     private final double dx, invDx, ox, oy, oz;
     private final ParticleObstacleContact contact;
+    private final WallHold hold;
     private final double[][] local;
     private final double[][] normal;
     /** Per worker: lowest and highest stencil base (x, y, z) of the block so far, fastest particle, first bad. */
@@ -52,9 +54,11 @@ public final class GridToParticle {
      * @param origin   grid origin (x, y, z), m
      * @param dx       cell size, m
      * @param contact  particle-level obstacle contact
+     * @param hold     walls that hold material once it has reached them
      */
     public GridToParticle(ParticleStore store, BlockLayout layout, FieldSet fields, Stencil[] stencils, int threads,
-                          Kernel kernel, double[] origin, double dx, ParticleObstacleContact contact) {
+                          Kernel kernel, double[] origin, double dx, ParticleObstacleContact contact,
+                          WallHold hold) {
         this.store = store;
         this.layout = layout;
         this.fields = fields;
@@ -66,6 +70,7 @@ public final class GridToParticle {
         this.oy = origin[1];
         this.oz = origin[2];
         this.contact = contact;
+        this.hold = hold;
         this.local = new double[threads][4 * L * L * L];
         this.normal = new double[threads][9];
         this.running = new int[threads][8];
@@ -178,6 +183,7 @@ public final class GridToParticle {
         int fastestP = acc[6];
         int bad = acc[7];
         boolean touch = contact.touches(r);
+        boolean held = hold.any();
         for (int p = from; p < to; p++) {
             int base = 4 * st.locate(x, p, key, Stencil.NO_DERIVATIVES);
             double fx = st.fx, fy = st.fy, fz = st.fz;
@@ -247,6 +253,12 @@ public final class GridToParticle {
             v[3 * p] = vx;
             v[3 * p + 1] = vy;
             v[3 * p + 2] = vz;
+            if (held) {
+                hold.hold(x, v, p);
+                vx = v[3 * p];
+                vy = v[3 * p + 1];
+                vz = v[3 * p + 2];
+            }
             double nx = x[3 * p] + h * vx, ny = x[3 * p + 1] + h * vy, nz = x[3 * p + 2] + h * vz;
             x[3 * p] = nx;
             x[3 * p + 1] = ny;

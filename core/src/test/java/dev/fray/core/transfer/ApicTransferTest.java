@@ -5,6 +5,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import dev.fray.core.boundary.Contact;
 import dev.fray.core.boundary.ParticleObstacleContact;
+import dev.fray.core.boundary.WallHold;
 import dev.fray.core.boundary.Shapes;
 import dev.fray.core.grid.FieldSet;
 import dev.fray.core.kernel.Kernel;
@@ -105,7 +106,9 @@ class ApicTransferTest extends FrayTestBase {
                 java.util.Arrays.fill(v, 0.0);
                 java.util.Arrays.fill(c, 0.0);
                 GridToParticle g2p = new GridToParticle(fx.store, fx.layout, fields, fx.stencils, 2, kernel,
-                        fx.origin, DX, new ParticleObstacleContact(List.of(), fx.origin, DX));
+                        fx.origin, DX, new ParticleObstacleContact(List.of(), fx.origin, DX),
+                        new WallHold(new dev.fray.core.boundary.Bounds(0, 0, 0, 1, 1, 1),
+                                java.util.Collections.nCopies(6, Contact.open()), DX));
                 g2p.prepare();
                 fx.workers.forEach(fx.layout.blockCount(), (wk, r) -> g2p.gatherBlock(wk, r, 0, FieldRouting.SINGLE));
                 double[] expect = new double[3 * N];
