@@ -16,7 +16,10 @@ public record Contact(Type type, double friction) implements ContactLaw {
         OPEN,
         /** Material takes the boundary's velocity. */
         STICKY,
-        /** Normal velocity removed always; tangential velocity kept, reduced by Coulomb friction. */
+        /**
+         * Normal velocity removed in both directions; tangential velocity kept, reduced by Coulomb friction. On a
+         * domain wall, material that has reached it stays on it (see {@link WallHold}).
+         */
         SLIP,
         /** Normal velocity removed only when moving into the boundary; Coulomb friction on the tangential part. */
         SEPARATING
