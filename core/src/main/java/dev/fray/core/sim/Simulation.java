@@ -1280,8 +1280,9 @@ public final class Simulation implements SimulationView, AutoCloseable {
             while (runEnd < end && body[runEnd] == b) {
                 runEnd++;
             }
-            if (laws[b].projectsDeformation()) {
-                laws[b].projectDeformation(store, runStart, runEnd);
+            int failed = laws[b].projectsDeformation() ? laws[b].projectDeformation(store, runStart, runEnd) : -1;
+            if (failed >= 0 && acc[7] < 0) {
+                acc[7] = failed;
             }
             runStart = runEnd;
         }
@@ -1483,7 +1484,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
             sortNeeded |= blockLeft[r];
             if (blockBad[r] >= 0) {
                 int p = blockBad[r];
-                throw new SimulationDivergedException("non-finite velocity or deformation",
+                throw new SimulationDivergedException("non-finite velocity or deformation, or a failed return mapping",
                         bodyNames.get(store.body()[p]), store.id()[p], step, time, suggestion());
             }
             if (blockMaxSpeed[r] > fastest) {
