@@ -157,12 +157,17 @@ public interface MaterialLaw {
 
     /**
      * After the deformation update, moves F back to the admissible set and updates plastic state (return mapping).
-     * Default: no-op.
+     * A particle whose mapping fails (a non-finite F, or a result that would not be finite) keeps its F and its
+     * channels unchanged, is reported through the return value, and the batch goes on; the solver then stops with
+     * a {@link dev.fray.core.error.SimulationDivergedException} naming it. The mapping never writes NaN.
+     * Default: no-op, returns -1.
      *
      * @param state particle data; F and this law's channels may be modified in [from, to)
      * @param from  first particle, inclusive
      * @param to    last particle, exclusive
+     * @return the index of the first particle in [from, to) whose mapping failed, or -1 if every one succeeded
      */
-    default void projectDeformation(MaterialState state, int from, int to) {
+    default int projectDeformation(MaterialState state, int from, int to) {
+        return -1;
     }
 }

@@ -51,7 +51,7 @@ public final class DivergenceGuard {
         for (int r = 0; r < layout.blockCount(); r++) {
             if (g2p.blockBad(r) >= 0) {
                 int p = g2p.blockBad(r);
-                throw new SimulationDivergedException("non-finite velocity or deformation",
+                throw new SimulationDivergedException("non-finite velocity or deformation, or a failed return mapping",
                         names.get(store.body()[p]), store.id()[p], step, time, suggestion());
             }
             if (g2p.blockMaxSpeed(r) > fastest) {

@@ -111,7 +111,7 @@ public final class ExplicitStep implements Integrator {
         FieldRouting routing = ctx.routing();
         ctx.workers().forEach(layout.blockCount(), (w, r) -> {
             g2p.gatherBlock(w, r, h, routing);
-            particleUpdate.project(r);
+            g2p.flagFailure(r, particleUpdate.project(r));
         });
         if (touching) {
             Tallies tl = ctx.tallies();

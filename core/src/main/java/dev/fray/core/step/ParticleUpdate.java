@@ -31,11 +31,13 @@ public final class ParticleUpdate {
      * Projects the deformation of particle block r's particles.
      *
      * @param r the particle block
+     * @return the first particle whose return mapping failed, or -1
      */
-    public void project(int r) {
+    public int project(int r) {
         if (!any) {
-            return;
+            return -1;
         }
+        int failed = -1;
         int[] body = store.body();
         int end = layout.end(r);
         for (int runStart = layout.start(r); runStart < end; ) {
@@ -45,9 +47,13 @@ public final class ParticleUpdate {
                 runEnd++;
             }
             if (laws[b].projectsDeformation()) {
-                laws[b].projectDeformation(store, runStart, runEnd);
+                int f = laws[b].projectDeformation(store, runStart, runEnd);
+                if (f >= 0 && failed < 0) {
+                    failed = f;
+                }
             }
             runStart = runEnd;
         }
+        return failed;
     }
 }

@@ -356,6 +356,19 @@ public final class GridToParticle {
         return blockFastest[r];
     }
 
+    /**
+     * Marks block r as failed at particle p when nothing earlier in the block failed (a return mapping that could
+     * not finish reports here, so the divergence check names the particle in the same step).
+     *
+     * @param r the particle block
+     * @param p the failed particle, or -1 for none
+     */
+    public void flagFailure(int r, int p) {
+        if (p >= 0 && blockBad[r] < 0) {
+            blockBad[r] = p;
+        }
+    }
+
     /** @return the first particle of block r with a non-finite velocity or deformation, or -1 */
     public int blockBad(int r) {
         return blockBad[r];

@@ -495,6 +495,25 @@ public abstract class MaterialLawContract extends FrayTestBase {
         }
     }
 
+    /**
+     * On finite deformation gradients (det F &gt; 0) the projection reports success (-1) and leaves F and every
+     * channel finite; a return mapping reports a failure instead of writing NaN.
+     */
+    @Test
+    public void projectionOfFiniteStatesSucceedsAndStaysFinite() {
+        // common practice, no source: the solver treats a reported index as a divergence, so a law must not report
+        // one for a sound state, and must never hand back a non-finite F or plastic state
+        MaterialLaw law = createLaw();
+        int n = 8;
+        double[] f = randomBatch(n);
+        ArrayMaterialState state = createState(f);
+        assertEquals(-1, law.projectDeformation(state, 0, n), "projection reported a failure on finite states");
+        assertAllFinite(f, "F after projection");
+        for (ChannelSpec spec : law.channels()) {
+            assertAllFinite(state.channel(spec.name()), "channel \"" + spec.name() + "\" after projection");
+        }
+    }
+
     // ---------------------------------------------------------------------------------------------------------
     // helpers shared by subclasses
 

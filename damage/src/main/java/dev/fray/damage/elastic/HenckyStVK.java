@@ -240,8 +240,15 @@ public final class HenckyStVK extends IsotropicElasticLaw {
         }
     }
 
-    /** ln s above the floor, its tangent line below. */
-    private static double logStretch(double s) {
+    /**
+     * The principal logarithmic strain this law uses: ln s above {@link #STRETCH_FLOOR}, its tangent line below
+     * (see the class comment). Plastic laws built on this one take their strains from here, so that their return
+     * mapping sees the strain the elastic energy sees.
+     *
+     * @param s a signed principal stretch (dimensionless)
+     * @return the continued logarithm of s, finite for finite s
+     */
+    public static double logStretch(double s) {
         return s >= STRETCH_FLOOR ? Math.log(s) : LOG_STRETCH_FLOOR + (s - STRETCH_FLOOR) / STRETCH_FLOOR;
     }
 

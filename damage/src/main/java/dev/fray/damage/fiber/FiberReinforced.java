@@ -469,13 +469,12 @@ public final class FiberReinforced implements MaterialLaw {
      * <p>Runs the base law's projection first, if it has one, then writes each family's current direction
      * F a0 / |F a0| (dimensionless, unit) from the resulting F. F itself is not changed here. A zero reference
      * direction (no fiber) gives a zero current direction. Where F a0 is zero or not finite (a singular or
-     * diverged F) the previous current direction is left in place, since no direction can be formed.
+     * diverged F) the previous current direction is left in place, since no direction can be formed. Returns
+     * the base law's failure, if any; writing directions cannot fail.
      */
     @Override
-    public void projectDeformation(MaterialState state, int from, int to) {
-        if (base.projectsDeformation()) {
-            base.projectDeformation(state, from, to);
-        }
+    public int projectDeformation(MaterialState state, int from, int to) {
+        int failed = base.projectsDeformation() ? base.projectDeformation(state, from, to) : -1;
         double[] f = state.deformation();
         for (int k = 0; k < terms.length; k++) {
             double[] a = state.channel(referenceNames[k]);
@@ -501,6 +500,7 @@ public final class FiberReinforced implements MaterialLaw {
                 }
             }
         }
+        return failed;
     }
 
     /** @return the base law and the terms, for diagnostics */

@@ -4,7 +4,6 @@ import dev.fray.core.error.Checks;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.material.MaterialLaw;
-import dev.fray.core.plugin.MaterialLawProvider;
 import dev.fray.core.plugin.Parameters;
 import dev.fray.damage.elastic.ElasticParameters;
 import dev.fray.damage.elastic.FixedCorotated;
@@ -70,25 +69,12 @@ public final class ElasticLawProviders {
     }
 
     /** Shared body of the three providers. */
-    private abstract static class Base implements MaterialLawProvider {
-        private final String name;
-        private final String description;
+    private abstract static class Base extends NamedLawProvider {
         private final Function<ElasticParameters, MaterialLaw> factory;
 
         Base(String name, String law, Function<ElasticParameters, MaterialLaw> factory) {
-            this.name = name;
-            this.description = law + "; parameters " + PARAMETER_LIST;
+            super(name, law + "; parameters " + PARAMETER_LIST);
             this.factory = factory;
-        }
-
-        @Override
-        public final String name() {
-            return name;
-        }
-
-        @Override
-        public final String description() {
-            return description;
         }
 
         @Override

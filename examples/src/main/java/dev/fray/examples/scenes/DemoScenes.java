@@ -43,6 +43,13 @@ import java.util.Map;
  *   <li>{@code slab-tear-soft}, {@code slab-tear-stiff}: the same with E = 1.25e4 Pa and 2e5 Pa at the same
  *       fracture energy: the stiffer slab needs more stress to break (about twice as much for four times the
  *       modulus) and its pieces ring faster.</li>
+ *   <li>{@code sand-collapse}: a square column of dry sand (Drucker-Prager, friction angle 30 degrees, no
+ *       cohesion) 0.2 m wide and 0.32 m tall collapses on a table (friction 0.4) and spreads into a low heap.</li>
+ *   <li>{@code metal-tear}: a notched soft metal strip (von Mises with hardening; Rankine damage starting at 1.25
+ *       times the yield stress) lying on a table is pulled apart by grips at 0.05 m/s each: the section at the
+ *       notch yields, necks and tears across.</li>
+ *   <li>{@code clay-cut}: a block of wet clay (non-associated Cam-Clay with Rankine damage) is cut in two by a
+ *       wire 16 mm across drawn down through it at 0.3 m/s.</li>
  * </ul>
  */
 public final class DemoScenes {
@@ -64,6 +71,9 @@ public final class DemoScenes {
         DESCRIPTIONS.put("slab-tear-slow", "slab-tear with a large crack-speed viscosity: the crack creeps");
         DESCRIPTIONS.put("slab-tear-soft", "slab-tear with a 4x softer gel: breaks at lower stress, rings slower");
         DESCRIPTIONS.put("slab-tear-stiff", "slab-tear with a 4x stiffer gel: needs more stress, rings faster");
+        DESCRIPTIONS.put("sand-collapse", "a column of dry sand collapses on a table and spreads into a heap");
+        DESCRIPTIONS.put("metal-tear", "grips pull a notched soft metal strip: it necks, then tears from the notch");
+        DESCRIPTIONS.put("clay-cut", "a thin wire drawn down through a block of wet clay cuts it in two");
     }
 
     private static final List<String> NAMES = List.copyOf(DESCRIPTIONS.keySet());
@@ -126,6 +136,9 @@ public final class DemoScenes {
                     0.5);
             case "slab-tear-stiff" -> FractureDemos.slabTear(4 * FractureDemos.SLAB_E, FractureDemos.SLAB_VISCOSITY,
                     0.2);
+            case "sand-collapse" -> PlasticDemos.sandCollapse(0.75);
+            case "metal-tear" -> PlasticDemos.stripTear(1.2);
+            case "clay-cut" -> PlasticDemos.clayCut(1.0);
             default -> throw new IllegalStateException("demo " + name + " listed but not built");
         };
         OutputSettings output = OutputSettings.defaults().withFrames(DEFAULT_FRAMES).withCheckpoints(12,

@@ -216,7 +216,7 @@ class SceneCommandsTest {
 
     @ParameterizedTest
     @ValueSource(strings = {"soft-drop", "spin-box", "bean-drop", "board-split", "slab-tear", "slab-tear-fast",
-        "slab-tear-slow", "slab-tear-soft", "slab-tear-stiff"})
+        "slab-tear-slow", "slab-tear-soft", "slab-tear-stiff", "sand-collapse", "metal-tear", "clay-cut"})
     void shippedScenesPassCheck(String name) {
         Run r = fray("check", Path.of("scenes", name + ".json").toString(), "--threads", "2");
         assertEquals(0, r.code(), r.err());

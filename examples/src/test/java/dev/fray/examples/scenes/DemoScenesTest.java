@@ -27,10 +27,15 @@ class DemoScenesTest {
         return DemoScenes.names();
     }
 
+    private static final List<String> PLASTIC = List.of("sand-collapse", "metal-tear", "clay-cut");
+    /** The plastic demos that also break. */
+    private static final List<String> PLASTIC_DAMAGE = List.of("metal-tear", "clay-cut");
+
     @Test
-    void listsTheFractureDemosAfterTheOthers() {
+    void listsTheFractureDemosThenThePlasticOnesAfterTheOthers() {
         assertEquals(List.of("soft-drop", "spin-box"), DemoScenes.names().subList(0, 2));
-        assertEquals(FRACTURE, DemoScenes.names().subList(2, DemoScenes.names().size()));
+        assertEquals(FRACTURE, DemoScenes.names().subList(2, 2 + FRACTURE.size()));
+        assertEquals(PLASTIC, DemoScenes.names().subList(2 + FRACTURE.size(), DemoScenes.names().size()));
         assertThrows(UnsupportedOperationException.class, () -> DemoScenes.names().add("x"));
     }
 
@@ -46,7 +51,9 @@ class DemoScenesTest {
             // Large enough to look like something, small enough for a quick default run.
             assertTrue(n >= 5_000 && n <= 40_000, name + ": " + n + " particles");
             boolean breaks = sim.particles().channelNames().contains(DamageModel.DAMAGE);
-            assertEquals(FRACTURE.contains(name), breaks, name + " has damage");
+            assertEquals(FRACTURE.contains(name) || PLASTIC_DAMAGE.contains(name), breaks, name + " has damage");
+            assertEquals(PLASTIC.contains(name), sim.particles().channelNames().contains("plastic-strain"),
+                    name + " has a plastic law");
             for (int i = 0; i < 3; i++) {
                 sim.step();
             }

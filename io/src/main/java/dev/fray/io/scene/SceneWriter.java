@@ -26,6 +26,7 @@ import dev.fray.damage.fracture.AnisotropicPhaseField;
 import dev.fray.damage.fracture.PhaseFieldAT2;
 import dev.fray.damage.fracture.RankineDamage;
 import dev.fray.damage.plugin.ElasticLawProviders;
+import dev.fray.damage.plugin.PlasticLawProviders;
 import dev.fray.io.AtomicFiles;
 
 import java.nio.charset.StandardCharsets;
@@ -385,6 +386,10 @@ public final class SceneWriter {
     }
 
     private static ModelDescription builtIn(Object model) {
+        Map<String, Object> plastic = model instanceof MaterialLaw law ? PlasticLawProviders.parametersOf(law) : null;
+        if (plastic != null) {
+            return new ModelDescription(((MaterialLaw) model).name(), plastic);
+        }
         ElasticParameters p;
         String name;
         if (model instanceof NeoHookean law) {

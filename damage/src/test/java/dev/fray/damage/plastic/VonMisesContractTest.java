@@ -1,0 +1,17 @@
+package dev.fray.damage.plastic;
+
+import dev.fray.core.material.MaterialLaw;
+import dev.fray.core.material.MaterialLawContract;
+import dev.fray.damage.Plastic;
+
+/**
+ * Runs the material-law contract against {@link VonMises} (von Mises plasticity with hardening):
+ * energy and stresses are those of the elastic part, so P = dpsi/dF, objectivity and the splits hold as for an
+ * elastic law, and the projection keeps to its range and reports success on sound states.
+ */
+class VonMisesContractTest extends MaterialLawContract {
+    @Override
+    protected MaterialLaw createLaw() {
+        return Plastic.vonMises(1e6, 0.3, 1000.0, 2e4, 5e4);
+    }
+}
