@@ -5,6 +5,7 @@ import dev.fray.core.material.TensionSplit;
 import dev.fray.core.particles.ChannelSpec;
 
 import java.util.List;
+import java.util.Optional;
 
 /**
  * A damage model: from the undamaged stress and energy of a body's particles to a damage variable d in [0, 1] and
@@ -50,6 +51,18 @@ public interface DamageModel {
      */
     default TensionSplit tensionSplit() {
         return TensionSplit.LAW_DEFAULT;
+    }
+
+    /**
+     * The strength these settings imply in uniaxial tension, from the model's homogeneous response (published
+     * closed forms where they exist), so that a user can compare settings with the stresses a scene applies.
+     * Call it on the model {@link #resolvedFor resolved} for the grid: length scales may default from the cell.
+     *
+     * @param youngsModulus Young's modulus E of the body's material, Pa, &gt; 0
+     * @return the strength, or empty when the model cannot tell (the default)
+     */
+    default Optional<UniaxialStrength> uniaxialStrength(double youngsModulus) {
+        return Optional.empty();
     }
 
     /** @return the channels the model needs, including {@link #DAMAGE} */

@@ -1,6 +1,7 @@
 package dev.fray.damage.fracture;
 
 import dev.fray.core.damage.DamageModel;
+import dev.fray.core.damage.UniaxialStrength;
 import dev.fray.core.error.Checks;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
@@ -13,15 +14,20 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.Collections;
 import java.util.List;
+import java.util.Locale;
+import java.util.Optional;
 
 /**
- * Anisotropic AT2 phase-field fracture for materials with one to three fiber families: the isotropic model of
- * {@link PhaseFieldAT2} with the crack surface density built on a structural tensor (published: Teichtmeister,
- * Kienle, Aldakheel and Keip, Int. J. Non-Linear Mech. 97, 2017; Clayton and Knap, Physica D 2014):
+ * Anisotropic phase-field fracture for materials with one to three fiber families: the isotropic model of
+ * {@link PhaseFieldAT2} or {@link PhaseFieldAT1} with the crack surface density built on a structural tensor
+ * (published: Teichtmeister, Kienle, Aldakheel and Keip, Int. J. Non-Linear Mech. 97, 2017; Clayton and Knap,
+ * Physica D 2014):
  * <pre>
- *   gamma(d) = d^2/(2l) + l/2 grad d . A grad d,   A = I + sum_k alpha_k a_k (x) a_k,
+ *   AT2 (default): gamma(d) = d^2/(2l) + l/2 grad d . A grad d,      A = I + sum_k alpha_k a_k (x) a_k,
+ *   AT1:           gamma(d) = 3/8 (d/l + l grad d . A grad d),
  * </pre>
- * so the grid problem is a d - div(D grad d) = b with D = Gc l A and a, b as in {@link PhaseFieldAT2}.
+ * so the grid problem is a d - div(D grad d) = b with D = Gc l A (AT2) or (3/4) Gc l A (AT1) and a, b as in
+ * {@link PhaseFieldSupport} ({@link Builder#crackDensity}).
  * a_k = F a0_k / |F a0_k| is the current direction of family k, computed from F and the reference direction in
  * channel "fiber-k" (see {@link FiberChannels}); a particle whose reference vector is zero has no fiber of that
  * family. alpha_k &gt;= 0 makes crack surfaces whose normal lies along a_k more costly (by sqrt(1 + alpha_k)), so
@@ -43,7 +49,11 @@ import java.util.List;
  *   the rate-independent evolution as (1 - d) zeta D - (d - l^2 div(A grad d)) = 0 with a slope parameter
  *   zeta &gt; 0; multiplied by Gc/l it is the energy form above with the history H = max over time of
  *   (Gc/(2l)) zeta D, which is what the history channel holds (J/m^3). So the viscosity keeps its meaning (Pa s)
- *   and homogeneous damage is d = zeta D/(1 + zeta D), zero until the failure surface is reached.</li>
+ *   and homogeneous damage is d = zeta D/(1 + zeta D), zero until the failure surface is reached. With AT1 the
+ *   history is H = (3 Gc/(16 l)) (1 + zeta D) where D &gt; 0 and 0 elsewhere (our mapping: AT1's elastic limit is
+ *   H = 3 Gc/(16 l), so damage starts on the failure surface and the homogeneous damage 1 - 3 Gc/(16 l H) is the
+ *   same zeta D/(1 + zeta D)); below the failure surface the AT1 threshold also keeps the band from spreading, so
+ *   material below its strength stays intact farther than 2 l from a crack.</li>
  * </ul>
  *
  * <p>Degradation g = (1 - d)^2 (1 - k) + k, applied to the degradable part of the {@link TensionSplit} the model
@@ -60,35 +70,28 @@ public final class AnisotropicPhaseField implements DamageModel {
 
     private static final ChannelSpec HISTORY_SPEC = PhaseFieldSupport.historySpec(PhaseFieldAT2.HISTORY);
 
-    private final double fractureEnergy;
-    private final double lengthScale;
-    private final double viscosity;
-    private final double residual;
+    private final PhaseFieldSupport.Settings settings;
     private final double[] strengths;
     private final boolean stressDriven;
     private final double sigmaAlong;
     private final double sigmaAcross;
     private final double slope;
-    private final TensionSplit split;
     private final List<ChannelSpec> channels;
 
-    private AnisotropicPhaseField(double fractureEnergy, double lengthScale, double viscosity, double residual,
-                                  double[] strengths, boolean stressDriven, double sigmaAlong, double sigmaAcross,
-                                  double slope, TensionSplit split) {
-        PhaseFieldSupport.check(fractureEnergy, lengthScale, viscosity, residual);
-        this.fractureEnergy = fractureEnergy;
-        this.lengthScale = lengthScale;
-        this.viscosity = viscosity;
-        this.residual = residual;
+    private AnisotropicPhaseField(PhaseFieldSupport.Settings settings, double[] strengths, boolean stressDriven,
+                                  double sigmaAlong, double sigmaAcross, double slope) {
+        this.settings = settings;
         this.strengths = strengths.clone();
         this.stressDriven = stressDriven;
         this.sigmaAlong = sigmaAlong;
         this.sigmaAcross = sigmaAcross;
         this.slope = slope;
-        this.split = Checks.notNull("tensionSplit", split);
         List<ChannelSpec> c = new ArrayList<>();
         c.add(PhaseFieldSupport.DAMAGE_SPEC);
         c.add(HISTORY_SPEC);
+        if (settings.density() == CrackDensity.AT1) {
+            c.add(PhaseFieldSupport.TRIAL_SPEC);
+        }
         for (int k = 1; k <= strengths.length; k++) {
             c.add(FiberChannels.referenceSpec(k));
         }
@@ -103,24 +106,42 @@ public final class AnisotropicPhaseField implements DamageModel {
         return new Builder();
     }
 
-    /** @return fracture energy Gc, J/m^2 */
+    /** @return the crack surface density, AT2 unless the builder chose AT1 */
+    public CrackDensity crackDensity() {
+        return settings.density();
+    }
+
+    /**
+     * @return fracture energy Gc, J/m^2; NaN while it is still to be solved for from a strength at a length scale
+     *         not yet resolved
+     */
     public double fractureEnergy() {
-        return fractureEnergy;
+        return settings.fractureEnergy();
+    }
+
+    /** @return the strength the fracture energy was solved for, Pa, or NaN if the fracture energy was given */
+    public double strength() {
+        return settings.strength();
+    }
+
+    /** @return Young's modulus that goes with {@link #strength()}, Pa, or NaN */
+    public double strengthModulus() {
+        return settings.strengthModulus();
     }
 
     /** @return length scale l across the fibers, m; NaN until {@link #resolvedFor} fills in the default */
     public double lengthScale() {
-        return lengthScale;
+        return settings.lengthScale();
     }
 
     /** @return crack-speed viscosity eta, Pa s */
     public double viscosity() {
-        return viscosity;
+        return settings.viscosity();
     }
 
     /** @return residual stiffness k, dimensionless */
     public double residualStiffness() {
-        return residual;
+        return settings.residual();
     }
 
     /** @return number of fiber families, 1 to 3 */
@@ -166,20 +187,43 @@ public final class AnisotropicPhaseField implements DamageModel {
     /** {@inheritDoc} As given to {@link Builder#tensionSplit}. */
     @Override
     public TensionSplit tensionSplit() {
-        return split;
+        return settings.split();
     }
 
     /**
-     * {@inheritDoc} Fills a missing length scale with {@link PhaseFieldAT2#DEFAULT_LENGTH_CELLS} cells. The check
-     * is on l, the shortest length (across the fibers); along them it is longer.
+     * {@inheritDoc} Fills a missing length scale with {@link PhaseFieldAT2#DEFAULT_LENGTH_CELLS} cells (and
+     * solves for the fracture energy when a strength was given). The check is on l, the shortest length (across
+     * the fibers); along them it is longer.
      *
      * @throws InvalidInputException with key OUT_OF_RANGE if l is below one cell
      */
     @Override
     public DamageModel resolvedFor(double cellSize) {
-        double l = PhaseFieldSupport.resolveLength(lengthScale, cellSize);
-        return l == lengthScale ? this : new AnisotropicPhaseField(fractureEnergy, l, viscosity, residual, strengths,
-                stressDriven, sigmaAlong, sigmaAcross, slope, split);
+        PhaseFieldSupport.Settings r = settings.resolvedFor(cellSize);
+        return r.equals(settings) ? this
+                : new AnisotropicPhaseField(r, strengths, stressDriven, sigmaAlong, sigmaAcross, slope);
+    }
+
+    /**
+     * {@inheritDoc} Energy driving: the homogeneous response of the {@link CrackDensity} (the structural tensor
+     * acts on gradients only). Stress driving: damage starts at the smaller critical stress sigma_s, and the
+     * homogeneous damage zeta D/(1 + zeta D) with D = (sigma/sigma_s)^2 - 1 peaks at x = sigma/sigma_s =
+     * max(1, sqrt((1 - zeta)/(3 zeta))) with the stress sigma_s x/(1 + zeta (x^2 - 1))^2 (derived here from the
+     * driving force above, degradation (1 - d)^2, the undamaged stress E eps). Empty before {@link #resolvedFor}.
+     */
+    @Override
+    public Optional<UniaxialStrength> uniaxialStrength(double youngsModulus) {
+        if (!stressDriven) {
+            return settings.uniaxialStrength(youngsModulus);
+        }
+        Checks.positive("youngsModulus (Pa)", youngsModulus);
+        double onset = Math.min(sigmaAlong, sigmaAcross);
+        double x = Math.max(1.0, Math.sqrt((1.0 - slope) / (3.0 * slope)));
+        double u = 1.0 + slope * (x * x - 1.0);
+        double peak = onset * x / (u * u);
+        return Optional.of(new UniaxialStrength(onset, peak, onset * x / youngsModulus, String.format(Locale.ROOT,
+                "stress driving: onset at the smaller critical stress (along %.4g Pa, across %.4g Pa), slope %.3g",
+                sigmaAlong, sigmaAcross, slope)));
     }
 
     /** {@inheritDoc} Here damage, history and fiber-1 .. fiber-n. */
@@ -194,6 +238,7 @@ public final class AnisotropicPhaseField implements DamageModel {
                        double[] psiDegraded, double[] g) {
         double[] h = state.channel(PhaseFieldAT2.HISTORY);
         double[] d = state.channel(DAMAGE);
+        double residual = settings.residual();
         if (!stressDriven) {
             for (int p = from; p < to; p++) {
                 double psi = psiDegraded[p - from];
@@ -202,8 +247,12 @@ public final class AnisotropicPhaseField implements DamageModel {
                 }
             }
         } else {
-            PhaseFieldSupport.requireResolved(NAME, lengthScale);
-            double scale = slope * fractureEnergy / (2.0 * lengthScale);
+            settings.requireResolved(NAME);
+            // H = scale (offset + D) for D > 0: AT2 (Gc/(2l)) zeta D; AT1 (3 Gc/(16 l)) (1 + zeta D).
+            boolean at1 = settings.density() == CrackDensity.AT1;
+            double gcOverL = settings.fractureEnergy() / settings.lengthScale();
+            double scale = at1 ? 0.1875 * gcOverL * slope : 0.5 * gcOverL * slope;
+            double offset = at1 ? 1.0 / slope : 0.0;
             double[] f = state.deformation();
             int n = strengths.length;
             double[] fib1 = state.channel(FiberChannels.reference(1));
@@ -253,7 +302,7 @@ public final class AnisotropicPhaseField implements DamageModel {
                     double r = s1 > 0 ? s1 * invAcross : 0.0;
                     drive = r * r - 1.0;
                 }
-                double heq = drive > 0 ? scale * drive : drive != drive ? drive : 0.0;
+                double heq = drive > 0 ? scale * (offset + drive) : drive != drive ? drive : 0.0;
                 if (!(heq <= h[p])) {
                     h[p] = heq;
                 }
@@ -265,7 +314,7 @@ public final class AnisotropicPhaseField implements DamageModel {
     /** {@inheritDoc} g = (1 - d)^2 (1 - k) + k. */
     @Override
     public void degradation(MaterialState state, int from, int to, double[] g) {
-        PhaseFieldSupport.degradation(state.channel(DAMAGE), from, to, residual, g);
+        PhaseFieldSupport.degradation(state.channel(DAMAGE), from, to, settings.residual(), g);
     }
 
     /** {@inheritDoc} Always true. */
@@ -275,18 +324,17 @@ public final class AnisotropicPhaseField implements DamageModel {
     }
 
     /**
-     * {@inheritDoc} a = Gc/l + 2H + eta/dt and b = 2H + (eta/dt) d_old in J/m^3 (Pa);
-     * D = Gc l (I + sum_k alpha_k a_k (x) a_k) in J/m with the current fiber directions a_k.
+     * {@inheritDoc} a and b as in {@link PhaseFieldSupport} in J/m^3 (Pa);
+     * D = c Gc l (I + sum_k alpha_k a_k (x) a_k) in J/m with the current fiber directions a_k, c = 1 (AT2) or
+     * 3/4 (AT1).
      *
      * @throws IllegalStateException if the length scale was never resolved
      */
     @Override
     public void phaseFieldCoefficients(MaterialState state, int from, int to, double dt, double[] out) {
-        PhaseFieldSupport.requireResolved(NAME, lengthScale);
-        double[] h = state.channel(PhaseFieldAT2.HISTORY);
-        double[] d = state.channel(DAMAGE);
-        PhaseFieldSupport.reactionAndSource(d, h, from, to, dt, fractureEnergy / lengthScale, viscosity, out);
-        double gcl = fractureEnergy * lengthScale;
+        settings.requireResolved(NAME);
+        PhaseFieldSupport.reactionAndSource(settings, state, from, to, dt, out);
+        double gcl = settings.diffusion();
         double[] f = state.deformation();
         int n = strengths.length;
         double[] fib1 = state.channel(FiberChannels.reference(1));
@@ -324,19 +372,18 @@ public final class AnisotropicPhaseField implements DamageModel {
         }
     }
 
-    /** {@inheritDoc} d = max(d_old, clamp(solved, 0, 1)). */
+    /** {@inheritDoc} d = max(d_old, clamp(solved, 0, 1)); AT1 also records the solved value. */
     @Override
     public void acceptPhaseField(MaterialState state, int from, int to, double[] solved) {
-        PhaseFieldSupport.accept(state.channel(DAMAGE), from, to, solved);
+        PhaseFieldSupport.accept(settings, state, from, to, solved);
     }
 
     /** @return the name and parameters, for diagnostics */
     @Override
     public String toString() {
-        return NAME + "[Gc=" + fractureEnergy + " J/m^2, l=" + lengthScale + " m, eta=" + viscosity + " Pa s, k="
-                + residual + ", alpha=" + Arrays.toString(strengths)
+        return NAME + settings + "[alpha=" + Arrays.toString(strengths)
                 + (stressDriven ? ", stress driving: along " + sigmaAlong + " Pa, across " + sigmaAcross
-                + " Pa, zeta " + slope : ", energy driving") + ", split=" + split + "]";
+                + " Pa, zeta " + slope : ", energy driving") + "]";
     }
 
     /** Fluent builder; {@link #build()} validates and names the field and its allowed range. */
@@ -346,8 +393,19 @@ public final class AnisotropicPhaseField implements DamageModel {
         private double sigmaAlong = Double.NaN;
         private double sigmaAcross = Double.NaN;
         private double slope = DEFAULT_STRESS_DRIVING_SLOPE;
+        private CrackDensity density = CrackDensity.AT2;
 
         private Builder() {
+        }
+
+        /**
+         * @param crackDensity {@link CrackDensity#AT2} (the default) or {@link CrackDensity#AT1}, which has an
+         *                     elastic stage and a band of finite width
+         * @return this
+         */
+        public Builder crackDensity(CrackDensity crackDensity) {
+            this.density = crackDensity;
+            return this;
         }
 
         @Override
@@ -392,12 +450,17 @@ public final class AnisotropicPhaseField implements DamageModel {
 
         /**
          * @return the model
-         * @throws InvalidInputException with key MISSING if the fracture energy, the fiber strengths or the split
-         *                               were not given, OUT_OF_RANGE or NOT_FINITE for a bad value
+         * @throws InvalidInputException with key MISSING if the fracture energy (or a strength) or the fiber
+         *                               strengths were not given, INCONSISTENT for a strength with the stress
+         *                               driving force, OUT_OF_RANGE or NOT_FINITE for a bad value
          */
         public DamageModel build() {
-            if (Double.isNaN(fractureEnergy)) {
-                throw new InvalidInputException(FrayMessage.MISSING, PhaseFieldSupport.FRACTURE_ENERGY);
+            Checks.notNull("crackDensity", density);
+            PhaseFieldSupport.Settings settings = PhaseFieldSupport.Settings.given(this, density);
+            if (stressDriven && !Double.isNaN(strength)) {
+                throw new InvalidInputException(FrayMessage.INCONSISTENT, "strength",
+                        "sets the fracture energy of the energy driving force; with stressDriving the critical"
+                                + " stresses are the strengths: give fractureEnergy");
             }
             if (strengths == null) {
                 throw new InvalidInputException(FrayMessage.MISSING, "fiberStrengths");
@@ -412,8 +475,7 @@ public final class AnisotropicPhaseField implements DamageModel {
                 Checks.positive("criticalStressAcross (Pa)", sigmaAcross);
                 Checks.positive("stressDrivingSlope", slope);
             }
-            return new AnisotropicPhaseField(fractureEnergy, lengthScale, viscosity, residual, strengths,
-                    stressDriven, sigmaAlong, sigmaAcross, slope, split);
+            return new AnisotropicPhaseField(settings, strengths, stressDriven, sigmaAlong, sigmaAcross, slope);
         }
     }
 }

@@ -1,6 +1,7 @@
 package dev.fray.damage.fracture;
 
 import dev.fray.core.damage.DamageModel;
+import dev.fray.core.damage.UniaxialStrength;
 import dev.fray.core.error.Checks;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
@@ -9,6 +10,8 @@ import dev.fray.core.material.TensionSplit;
 import dev.fray.core.particles.ChannelSpec;
 
 import java.util.List;
+import java.util.Locale;
+import java.util.Optional;
 
 /**
  * Local damage with the Rankine (maximum principal stress) criterion and exponential softening; no grid solve.
@@ -196,6 +199,17 @@ public final class RankineDamage implements DamageModel {
                             + " band width (cell size) or the critical stress");
         }
         return s;
+    }
+
+    /**
+     * {@inheritDoc} Damage starts at the critical stress, which is also the peak: the softening branch only
+     * falls (Rankine's criterion; the strain is sigma_c / E).
+     */
+    @Override
+    public Optional<UniaxialStrength> uniaxialStrength(double youngsModulus) {
+        Checks.positive("youngsModulus (Pa)", youngsModulus);
+        return Optional.of(new UniaxialStrength(criticalStress, criticalStress, criticalStress / youngsModulus,
+                String.format(Locale.ROOT, "Rankine: critical stress %.4g Pa", criticalStress)));
     }
 
     /** {@inheritDoc} Here {@value DamageModel#DAMAGE} and {@value #HISTORY}. */

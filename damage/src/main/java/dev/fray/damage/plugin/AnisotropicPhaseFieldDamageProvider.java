@@ -3,21 +3,28 @@ package dev.fray.damage.plugin;
 import dev.fray.core.damage.DamageModel;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
-import dev.fray.core.material.TensionSplit;
 import dev.fray.core.plugin.DamageModelProvider;
 import dev.fray.core.plugin.Parameters;
 import dev.fray.damage.Fracture;
+import dev.fray.core.plugin.Suggest;
 import dev.fray.damage.fracture.AnisotropicPhaseField;
-import dev.fray.damage.fracture.PhaseFieldAT2;
+import dev.fray.damage.fracture.CrackDensity;
+
+import java.util.Arrays;
+import java.util.List;
 
 /**
  * Registry entry "phase-field-anisotropic": {@link AnisotropicPhaseField} from named parameters fractureEnergy
- * (J/m^2), lengthScale (m), viscosity (Pa s), residualStiffness, fiberStrength1 (required), fiberStrength2 and
+ * (J/m^2) or strength (Pa) with youngsModulus (Pa), crackDensity ("at2", the default, or "at1"), lengthScale (m),
+ * viscosity (Pa s), residualStiffness, fiberStrength1 (required), fiberStrength2 and
  * fiberStrength3 (one per further family), and for the stress-based driving force criticalStressAlong and
  * criticalStressAcross (Pa, both or neither) with stressDrivingSlope, and split (tension-compression split:
  * law-default, volumetric-deviatoric, spectral or none).
  */
 public final class AnisotropicPhaseFieldDamageProvider implements DamageModelProvider {
+    private static final List<String> DENSITIES = Arrays.stream(CrackDensity.values()).map(CrackDensity::key)
+            .toList();
+
     /** Creates the provider (called by {@link java.util.ServiceLoader}). */
     public AnisotropicPhaseFieldDamageProvider() {
     }
@@ -31,10 +38,10 @@ public final class AnisotropicPhaseFieldDamageProvider implements DamageModelPro
     /** {@inheritDoc} */
     @Override
     public String description() {
-        return "AT2 phase-field fracture along fibers: fractureEnergy (J/m^2), lengthScale (m, default two cells),"
-                + " viscosity (Pa s), residualStiffness, fiberStrength1..3 (anisotropy alpha per fiber family,"
-                + " channels fiber-1..3), optional criticalStressAlong and criticalStressAcross (Pa) for a"
-                + " stress-based driving force with stressDrivingSlope (default 1), " + SplitParameter.DESCRIPTION;
+        return "phase-field fracture along fibers: crackDensity (at2 or at1, default at2), fiberStrength1..3"
+                + " (anisotropy alpha per fiber family, channels fiber-1..3), optional criticalStressAlong and"
+                + " criticalStressAcross (Pa) for a stress-based driving force with stressDrivingSlope (default 1), "
+                + PhaseFieldParameters.DESCRIPTION;
     }
 
     /**
@@ -47,19 +54,19 @@ public final class AnisotropicPhaseFieldDamageProvider implements DamageModelPro
      */
     @Override
     public DamageModel create(Parameters params) {
-        double gc = params.number("fractureEnergy", Double.NaN);
-        double l = params.number("lengthScale", Double.NaN);
-        double eta = params.number("viscosity", 0.0);
-        double k = params.number("residualStiffness", PhaseFieldAT2.DEFAULT_RESIDUAL_STIFFNESS);
         double[] alpha = {params.number("fiberStrength1", Double.NaN), params.number("fiberStrength2", Double.NaN),
             params.number("fiberStrength3", Double.NaN)};
         double along = params.number("criticalStressAlong", Double.NaN);
         double across = params.number("criticalStressAcross", Double.NaN);
         double zeta = params.number("stressDrivingSlope", AnisotropicPhaseField.DEFAULT_STRESS_DRIVING_SLOPE);
-        TensionSplit split = SplitParameter.read(params);
+        String density = params.string("crackDensity", CrackDensity.AT2.key());
+        AnisotropicPhaseField.Builder b = PhaseFieldParameters.read(params, Fracture.anisotropicPhaseField());
         params.requireAllUsed();
-        if (Double.isNaN(gc)) {
-            throw new InvalidInputException(FrayMessage.MISSING, params.where() + ".fractureEnergy");
+        CrackDensity cd = CrackDensity.ofKey(density);
+        if (cd == null) {
+            String best = Suggest.closest(density, DENSITIES);
+            throw new InvalidInputException(FrayMessage.UNKNOWN_NAME, "crackDensity in " + params.where(), density,
+                    best == null ? DENSITIES : "did you mean \"" + best + "\"? all: " + DENSITIES);
         }
         int families = 0;
         for (int f = 0; f < alpha.length; f++) {
@@ -75,9 +82,7 @@ public final class AnisotropicPhaseFieldDamageProvider implements DamageModelPro
         if (families == 0) {
             throw new InvalidInputException(FrayMessage.MISSING, params.where() + ".fiberStrength1");
         }
-        AnisotropicPhaseField.Builder b = Fracture.anisotropicPhaseField().fractureEnergy(gc).lengthScale(l)
-                .viscosity(eta).residualStiffness(k).fiberStrengths(java.util.Arrays.copyOf(alpha, families))
-                .stressDrivingSlope(zeta).tensionSplit(split);
+        b.crackDensity(cd).fiberStrengths(Arrays.copyOf(alpha, families)).stressDrivingSlope(zeta);
         if (Double.isNaN(along) != Double.isNaN(across)) {
             throw new InvalidInputException(FrayMessage.INCONSISTENT, params.where() + ".criticalStressAlong and"
                     + " criticalStressAcross", "give both for the stress-based driving force, or neither");

@@ -1,21 +1,22 @@
 package dev.fray.damage.plugin;
 
 import dev.fray.core.damage.DamageModel;
-import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
-import dev.fray.core.material.TensionSplit;
 import dev.fray.core.plugin.DamageModelProvider;
 import dev.fray.core.plugin.Parameters;
 import dev.fray.damage.Fracture;
+import dev.fray.damage.fracture.IsotropicPhaseField;
+import dev.fray.damage.fracture.PhaseFieldAT1;
 import dev.fray.damage.fracture.PhaseFieldAT2;
 
 /**
- * Registry entry "phase-field-at2": {@link PhaseFieldAT2} from named parameters fractureEnergy (J/m^2),
+ * Registry entries "phase-field-at2" ({@link PhaseFieldAT2}) and, as {@link AT1}, "phase-field-at1"
+ * ({@link PhaseFieldAT1}), from named parameters fractureEnergy (J/m^2) or strength (Pa) with youngsModulus (Pa),
  * lengthScale (m), viscosity (Pa s), residualStiffness and split (tension-compression split: law-default,
  * volumetric-deviatoric, spectral or none).
  */
-public final class PhaseFieldDamageProvider implements DamageModelProvider {
-    /** Creates the provider (called by {@link java.util.ServiceLoader}). */
+public class PhaseFieldDamageProvider implements DamageModelProvider {
+    /** Creates the AT2 provider (called by {@link java.util.ServiceLoader}). */
     public PhaseFieldDamageProvider() {
     }
 
@@ -28,9 +29,8 @@ public final class PhaseFieldDamageProvider implements DamageModelProvider {
     /** {@inheritDoc} */
     @Override
     public String description() {
-        return "AT2 phase-field fracture with history field: fractureEnergy (J/m^2), lengthScale (m, default two"
-                + " cells), viscosity (Pa s, default 0), residualStiffness (in [0, 0.1], default 1e-6), "
-                + SplitParameter.DESCRIPTION;
+        return "AT2 phase-field fracture with history field (damages under any load): "
+                + PhaseFieldParameters.DESCRIPTION;
     }
 
     /**
@@ -42,16 +42,36 @@ public final class PhaseFieldDamageProvider implements DamageModelProvider {
      */
     @Override
     public DamageModel create(Parameters params) {
-        double gc = params.number("fractureEnergy", Double.NaN);
-        double l = params.number("lengthScale", Double.NaN);
-        double eta = params.number("viscosity", 0.0);
-        double k = params.number("residualStiffness", PhaseFieldAT2.DEFAULT_RESIDUAL_STIFFNESS);
-        TensionSplit split = SplitParameter.read(params);
+        IsotropicPhaseField.Builder b = PhaseFieldParameters.read(params, Fracture.phaseField());
         params.requireAllUsed();
-        if (Double.isNaN(gc)) {
-            throw new InvalidInputException(FrayMessage.MISSING, params.where() + ".fractureEnergy");
+        return b.build();
+    }
+
+    /** Registry entry "phase-field-at1". */
+    public static final class AT1 extends PhaseFieldDamageProvider {
+        /** Creates the provider (called by {@link java.util.ServiceLoader}). */
+        public AT1() {
         }
-        return Fracture.phaseField().fractureEnergy(gc).lengthScale(l).viscosity(eta).residualStiffness(k)
-                .tensionSplit(split).build();
+
+        /** {@inheritDoc} */
+        @Override
+        public String name() {
+            return PhaseFieldAT1.NAME;
+        }
+
+        /** {@inheritDoc} */
+        @Override
+        public String description() {
+            return "AT1 phase-field fracture with history field (elastic up to sqrt(3 E Gc/(8 l)), band of"
+                    + " half-width 2 l): " + PhaseFieldParameters.DESCRIPTION;
+        }
+
+        /** {@inheritDoc} */
+        @Override
+        public DamageModel create(Parameters params) {
+            IsotropicPhaseField.Builder b = PhaseFieldParameters.read(params, Fracture.phaseFieldAT1());
+            params.requireAllUsed();
+            return b.build();
+        }
     }
 }

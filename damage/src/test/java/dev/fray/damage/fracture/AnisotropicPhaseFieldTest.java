@@ -126,6 +126,56 @@ class AnisotropicPhaseFieldTest extends FrayTestBase {
         }
     }
 
+    /** b / a of a particle loaded along its fiber with uniaxial Cauchy stress x sigma_along (F = I, J = 1). */
+    private static double homogeneousDamage(DamageModel m, double x) {
+        double[] f = {1, 0, 0, 0, 1, 0, 0, 0, 1};
+        ArrayMaterialState s = new ArrayMaterialState(f).withChannel(DamageModel.DAMAGE, new double[1])
+                .withChannel(PhaseFieldAT2.HISTORY, new double[1])
+                .withChannel(FiberChannels.reference(1), new double[] {1, 0, 0})
+                .withChannel(PhaseFieldSupport.TRIAL, new double[] {0}); // released: the unconstrained solve
+        double[] tau = new double[9];
+        tau[0] = x * ALONG;
+        double[] coef = new double[DamageModel.COEFFICIENTS];
+        m.update(s, 0, 1, 1e-3, tau, new double[9], new double[1], new double[1]);
+        m.phaseFieldCoefficients(s, 0, 1, 1e-3, coef);
+        return coef[1] / coef[0];
+    }
+
+    @Test
+    void at1VariantScalesTheDiffusionAndKeepsTheStressDrivenResponse() {
+        AnisotropicPhaseField.Builder b = Fracture.anisotropicPhaseField().fractureEnergy(GC).lengthScale(L)
+                .fiberStrengths(3).stressDriving(ALONG, ACROSS).stressDrivingSlope(0.5);
+        DamageModel at2 = b.build();
+        DamageModel at1 = b.crackDensity(CrackDensity.AT1).build();
+        for (double x : new double[] {0.5, 0.99, 1.01, 1.3, 2, 4}) {
+            double drive = x * x - 1;
+            // published: Miehe, Schaenzel and Ulmer, CMAME 294 (2015): homogeneous d = zeta D/(1 + zeta D), D > 0
+            double expected = drive > 0 ? 0.5 * drive / (1 + 0.5 * drive) : 0;
+            assertEquals(expected, Math.max(0, homogeneousDamage(at2, x)), 1e-12, "AT2 at " + x + " sigma_along");
+            // derived here: the AT1 history (3 Gc/(16 l))(1 + zeta D) gives the same homogeneous damage, and
+            // below the failure surface b < 0 (no damage)
+            double got = homogeneousDamage(at1, x);
+            assertEquals(expected, Math.max(0, got), 1e-12, "AT1 at " + x + " sigma_along");
+            assertTrue(drive > 0 || got < 0, "AT1 below the failure surface solves below zero: " + got);
+        }
+        double[] f = {1, 0, 0, 0, 1, 0, 0, 0, 1};
+        ArrayMaterialState s = new ArrayMaterialState(f).withChannel(DamageModel.DAMAGE, new double[1])
+                .withChannel(PhaseFieldAT2.HISTORY, new double[1])
+                .withChannel(FiberChannels.reference(1), new double[] {1, 0, 0})
+                .withChannel(PhaseFieldSupport.TRIAL, new double[] {-1});
+        double[] out = new double[DamageModel.COEFFICIENTS];
+        at1.phaseFieldCoefficients(s, 0, 1, 1e-3, out);
+        // published: AT1 gamma = 3/8 (d/l + l grad d . A grad d) (Pham et al., IJDM 20, 2011, with the
+        // structural tensor of Teichtmeister et al. 2017): D = (3/4) Gc l A
+        assertEquals(0.75 * GC * L * (1 + 3), out[2], 1e-12 * GC * L, "D along the fiber");
+        assertEquals(0.75 * GC * L, out[3], 1e-12 * GC * L, "D across");
+        assertEquals(0.0, out[1], 0.0, "deep in intact material b = 0, so an intact body's solve is skipped");
+        s.channel(PhaseFieldSupport.TRIAL)[0] = -0.001;
+        at1.phaseFieldCoefficients(s, 0, 1, 1e-3, out);
+        // published: the AT1 local term Gc w(d)/(c_w l) with w = d, c_w = 8/3 (Pham et al. 2011) is the sink
+        assertEquals(-3 * GC / (8 * L), out[1], 1e-12 * GC / L, "b = -3 Gc/(8 l) without load near the band");
+    }
+
     private static double[] unit(double x, double y, double z) {
         double n = Math.sqrt(x * x + y * y + z * z);
         return new double[] {x / n, y / n, z / n};

@@ -16,7 +16,7 @@ import dev.fray.core.testing.FrayTestBase;
 import java.util.Map;
 import org.junit.jupiter.api.Test;
 
-/** The three fracture models are found through ServiceLoader and made from named parameters (common practice). */
+/** The fracture models are found through ServiceLoader and made from named parameters (common practice). */
 class FractureProvidersTest extends FrayTestBase {
     private static final String WHERE = "test.json: bodies[0].damage";
 
@@ -25,9 +25,10 @@ class FractureProvidersTest extends FrayTestBase {
     }
 
     @Test
-    void registryFindsTheThreeModels() {
+    void registryFindsTheModels() {
         Map<String, DamageModelProvider> models = PluginRegistry.load().damageModels();
-        for (String name : new String[] {RankineDamage.NAME, PhaseFieldAT2.NAME, AnisotropicPhaseField.NAME}) {
+        for (String name : new String[] {RankineDamage.NAME, PhaseFieldAT2.NAME, PhaseFieldAT1.NAME,
+            AnisotropicPhaseField.NAME}) {
             assertTrue(models.containsKey(name), name + " registered; have " + models.keySet());
             assertEquals(name, models.get(name).name());
             assertFalse(models.get(name).description().isEmpty(), "description of " + name);
@@ -54,6 +55,15 @@ class FractureProvidersTest extends FrayTestBase {
         assertEquals(4e5, an.criticalStressAcross());
         assertTrue(Double.isNaN(an.lengthScale()), "length scale defaults from the cell size");
         assertEquals(0.02, ((AnisotropicPhaseField) an.resolvedFor(0.01)).lengthScale(), 1e-15);
+
+        PhaseFieldAT1 at1 = assertInstanceOf(PhaseFieldAT1.class, make(PhaseFieldAT1.NAME,
+                Map.of("strength", 2e4, "youngsModulus", 2e5, "lengthScale", 0.02)));
+        // Gc = 8 l sigma_c^2/(3 E), the inverse of Pham et al. (2011)'s sigma_c = sqrt(3 E Gc/(8 l))
+        assertEquals(8 * 0.02 * 4e8 / (3 * 2e5), at1.fractureEnergy(), 1e-12);
+        assertEquals(CrackDensity.AT1, at1.crackDensity());
+        AnisotropicPhaseField an1 = assertInstanceOf(AnisotropicPhaseField.class, make(AnisotropicPhaseField.NAME,
+                Map.of("fractureEnergy", 5.0, "fiberStrength1", 4.0, "crackDensity", "AT1")));
+        assertEquals(CrackDensity.AT1, an1.crackDensity());
 
         RankineDamage r = assertInstanceOf(RankineDamage.class, make(RankineDamage.NAME,
                 Map.of("criticalStress", 1e5, "fractureEnergy", 10.0, "youngsModulus", 1e8,
@@ -95,6 +105,17 @@ class FractureProvidersTest extends FrayTestBase {
         InvalidInputException g = assertThrows(InvalidInputException.class, () -> make(AnisotropicPhaseField.NAME,
                 Map.of("fractureEnergy", 1.0, "fiberStrength1", 2.0, "criticalStressAlong", 1e6)));
         assertEquals(FrayMessage.INCONSISTENT, g.key());
+        InvalidInputException st = assertThrows(InvalidInputException.class,
+                () -> make(PhaseFieldAT1.NAME, Map.of("strength", 1e4)));
+        assertEquals(FrayMessage.MISSING, st.key());
+        assertTrue(st.parts()[0].toString().endsWith("youngsModulus"), st.getMessage());
+        InvalidInputException both = assertThrows(InvalidInputException.class, () -> make(PhaseFieldAT1.NAME,
+                Map.of("strength", 1e4, "youngsModulus", 1e6, "fractureEnergy", 3.0)));
+        assertEquals(FrayMessage.INCONSISTENT, both.key());
+        InvalidInputException cd = assertThrows(InvalidInputException.class, () -> make(AnisotropicPhaseField.NAME,
+                Map.of("fractureEnergy", 1.0, "fiberStrength1", 2.0, "crackDensity", "at3")));
+        assertEquals(FrayMessage.UNKNOWN_NAME, cd.key());
+        assertTrue(cd.parts()[2].toString().contains("did you mean"), cd.getMessage());
         InvalidInputException d = assertThrows(InvalidInputException.class, () -> make(RankineDamage.NAME,
                 Map.of("criticalStress", 1e5, "softeningStress", 1e4, "degradation", "cubic")));
         assertEquals(FrayMessage.UNKNOWN_NAME, d.key());

@@ -45,6 +45,13 @@ class FractureValidationTest extends FrayTestBase {
                 () -> Fracture.anisotropicPhaseField().fractureEnergy(1).fiberStrengths(1, -2).build());
         rejects(FrayMessage.OUT_OF_RANGE, "criticalStressAcross", () -> Fracture.anisotropicPhaseField()
                 .fractureEnergy(1).fiberStrengths(1).stressDriving(1e6, 0).build());
+        rejects(FrayMessage.MISSING, "fractureEnergy", () -> Fracture.phaseFieldAT1().build());
+        rejects(FrayMessage.INCONSISTENT, "fractureEnergy and strength",
+                () -> Fracture.phaseFieldAT1().fractureEnergy(1).strength(1e4, 1e6).build());
+        rejects(FrayMessage.OUT_OF_RANGE, "strength", () -> Fracture.phaseFieldAT1().strength(-1, 1e6).build());
+        rejects(FrayMessage.OUT_OF_RANGE, "youngsModulus", () -> Fracture.phaseField().strength(1e4, 0).build());
+        rejects(FrayMessage.INCONSISTENT, "strength", () -> Fracture.anisotropicPhaseField().strength(1e4, 1e6)
+                .fiberStrengths(1).stressDriving(1e6, 1e5).build());
     }
 
     @Test
@@ -97,7 +104,11 @@ class FractureValidationTest extends FrayTestBase {
                 FiberChannels.reference(2)), an.stream().map(ChannelSpec::name).toList());
         List<ChannelSpec> r = Fracture.rankine().criticalStress(1).softeningStress(1).build().channels();
         assertEquals(List.of(DamageModel.DAMAGE, RankineDamage.HISTORY), r.stream().map(ChannelSpec::name).toList());
-        for (List<ChannelSpec> list : List.of(at2, an, r)) {
+        List<ChannelSpec> at1 = Fracture.phaseFieldAT1().fractureEnergy(1).build().channels();
+        assertEquals(List.of(DamageModel.DAMAGE, PhaseFieldAT2.HISTORY, PhaseFieldSupport.TRIAL),
+                at1.stream().map(ChannelSpec::name).toList());
+        assertEquals(-1.0, at1.get(2).initial(), "the first AT1 solve is penalised everywhere");
+        for (List<ChannelSpec> list : List.of(at2, an, r, at1)) {
             assertEquals(1, list.get(0).width(), "damage has width 1");
         }
     }
@@ -105,12 +116,14 @@ class FractureValidationTest extends FrayTestBase {
     @Test
     void emptyRangeIsANoOp() {
         for (DamageModel m : List.of(Fracture.phaseField().fractureEnergy(1).lengthScale(1).build(),
+                Fracture.phaseFieldAT1().fractureEnergy(1).lengthScale(1).build(),
                 Fracture.anisotropicPhaseField().fractureEnergy(1).lengthScale(1).fiberStrengths(1).build(),
                 Fracture.rankine().criticalStress(1).softeningStress(1).build())) {
             double[] f = {1, 0, 0, 0, 1, 0, 0, 0, 1};
             ArrayMaterialState s = new ArrayMaterialState(f).withChannel(DamageModel.DAMAGE, new double[1])
                     .withChannel(PhaseFieldAT2.HISTORY, new double[1]).withChannel(RankineDamage.HISTORY,
-                            new double[1]).withChannel(FiberChannels.reference(1), new double[3]);
+                            new double[1]).withChannel(FiberChannels.reference(1), new double[3])
+                    .withChannel(PhaseFieldSupport.TRIAL, new double[1]);
             double[] none = new double[0];
             m.update(s, 1, 1, 1e-3, none, none, none, none);
             m.degradation(s, 1, 1, none);

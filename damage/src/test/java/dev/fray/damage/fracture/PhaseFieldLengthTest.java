@@ -141,26 +141,9 @@ class PhaseFieldLengthTest extends FrayTestBase {
                     pts.add(new double[] {s, Math.log(v.get(DamageModel.DAMAGE, p, 0))});
                 }
             }
-            double slope = slope(pts);
+            double slope = LineFit.of(pts)[1];
             return -1.0 / slope;
         }
-    }
-
-    /** Least-squares slope of y over x. */
-    private static double slope(List<double[]> pts) {
-        double mx = 0, my = 0;
-        for (double[] q : pts) {
-            mx += q[0];
-            my += q[1];
-        }
-        mx /= pts.size();
-        my /= pts.size();
-        double num = 0, den = 0;
-        for (double[] q : pts) {
-            num += (q[0] - mx) * (q[1] - my);
-            den += (q[0] - mx) * (q[0] - mx);
-        }
-        return num / den;
     }
 
     private static DamageModel at2(double l) {

@@ -33,8 +33,9 @@ import java.util.concurrent.Callable;
 
 /**
  * {@code fray check SCENE}: reads a scene file, reporting every problem at once, samples its bodies and prints a
- * summary (particles per body, time step, steps, memory and output sizes) with warnings about settings that run
- * but will probably disappoint. Runs no step.
+ * summary (particles per body, the strength each damage setting implies against the stresses the scene applies
+ * ({@link StrengthReport}), time step, steps, memory and output sizes) with warnings about settings that run but
+ * will probably disappoint. Runs no step.
  */
 @Command(name = "check", mixinStandardHelpOptions = true,
         description = {"Validate a scene file and print what a run of it would involve, without running it."})
@@ -124,6 +125,7 @@ public final class CheckCommand implements Callable<Integer> {
                     o.contact().type().name().toLowerCase(Locale.ROOT), o.contact().friction(),
                     o.motion().isStill() ? "" : ", moving");
         }
+        StrengthReport.report(out, warnings, s, pv, frames);
         startingOverlaps(warnings, s, pv);
         gripCounts(warnings, s, pv);
 

@@ -2,6 +2,7 @@ package dev.fray.examples.cli;
 
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
+import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.fray.core.damage.DamageModel;
 import dev.fray.core.error.FrayMessage;
@@ -18,6 +19,7 @@ import dev.fray.io.cache.PlyFrameWriter;
 import dev.fray.io.cache.PlyParticleWriter;
 import dev.fray.io.cache.VtpParticleWriter;
 import dev.fray.io.checkpoint.CheckpointListener;
+import dev.fray.io.result.CrackBand;
 import dev.fray.io.scene.LoadedScene;
 import dev.fray.io.scene.OutputFormat;
 import dev.fray.io.scene.OutputSettings;
@@ -32,6 +34,7 @@ import java.lang.management.MemoryPoolMXBean;
 import java.lang.management.MemoryType;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
@@ -42,7 +45,8 @@ import java.util.stream.Stream;
 /**
  * One run of a scene into an output folder, fresh or resumed from a checkpoint: sets up the writers the scene's
  * output settings ask for (PLY frames, VTP frames with a .pvd series, the diagnostics CSV), checkpoints every N
- * frames, the progress line, runs, and writes {@value #SUMMARY_FILE} at the end (also after a divergence).
+ * frames, the progress line, runs, and writes {@value #SUMMARY_FILE} at the end (also after a divergence), with the
+ * crack band of {@link CrackBand} at the last frame and its width at every frame of the run.
  *
  * <p>Resuming reproduces the uninterrupted run's files byte for byte: the simulation continues bitwise
  * identically, frames are rewritten identically, the .pvd series is seeded with the earlier frames, and the
@@ -298,6 +302,23 @@ final class RunSession {
         } else {
             o.put("maxDamage", maxDamage);
         }
+        if (stats.lastBand == null) {
+            o.putNull("crackBand");
+        } else {
+            ObjectNode band = o.putObject("crackBand");
+            band.put("frame", stats.lastBandFrame);
+            putNumber(band, "bandVolume_m3", stats.lastBand.bandVolume());
+            putNumber(band, "crackArea_m2", stats.lastBand.crackArea());
+            putNumber(band, "width_m", stats.lastBand.width());
+            ArrayNode widths = band.putArray("widthByFrame_m");
+            for (double w : stats.widths) {
+                if (Double.isNaN(w)) {
+                    widths.addNull();
+                } else {
+                    widths.add(w);
+                }
+            }
+        }
         if (resumedFrom != null) {
             o.put("resumedFrom", resumedFrom.toString());
         }
@@ -331,13 +352,31 @@ final class RunSession {
         return best;
     }
 
-    /** Peak grid memory seen at frames. */
+    /** A number, or null where it is NaN (JSON has no NaN). */
+    private static void putNumber(ObjectNode o, String key, double v) {
+        if (Double.isNaN(v)) {
+            o.putNull(key);
+        } else {
+            o.put(key, v);
+        }
+    }
+
+    /** Peak grid memory and the crack band seen at frames. */
     private static final class Stats implements FrameListener {
         long peakGridBytes;
+        final CrackBand band = new CrackBand();
+        final List<Double> widths = new ArrayList<>();
+        CrackBand.Measure lastBand;
+        int lastBandFrame;
 
         @Override
         public void onFrame(int frame, double time, SimulationView view, boolean isLast) {
             peakGridBytes = Math.max(peakGridBytes, view.gridMemoryBytes());
+            if (view.particles().channelNames().contains(DamageModel.DAMAGE)) {
+                lastBand = band.measure(view);
+                lastBandFrame = frame;
+                widths.add(lastBand.width());
+            }
         }
     }
 

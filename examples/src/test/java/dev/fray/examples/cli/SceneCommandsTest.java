@@ -104,7 +104,7 @@ class SceneCommandsTest {
                 && ck.out().contains("damage") && ck.out().contains("diagnostics.csv")
                 && ck.out().contains("1 bodies (cube)"), ck.out());
         assertTrue(fray("info", out.resolve("frames.pvd").toString()).out().contains("4 frames, every file present"));
-        assertTrue(fray("info", out.resolve("diagnostics.csv").toString()).out().contains("21 columns"));
+        assertTrue(fray("info", out.resolve("diagnostics.csv").toString()).out().contains("24 columns"));
 
         byte[] frame = Files.readAllBytes(out.resolve("frame_00002.ply"));
         Path cut = write("cut.ply", "");

@@ -11,7 +11,7 @@ import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.sim.Diagnostics;
 import dev.fray.core.sim.Scene;
 import dev.fray.core.sim.Simulation;
-import dev.fray.damage.fracture.PhaseFieldAT2;
+import dev.fray.damage.fracture.IsotropicPhaseField;
 
 import java.util.List;
 import org.junit.jupiter.api.Test;
@@ -80,7 +80,7 @@ class DemoScenesTest {
     }
 
     private static double viscosity(String demo) {
-        return ((PhaseFieldAT2) DemoScenes.build(demo, 1).bodies().get(0).damage()).viscosity();
+        return ((IsotropicPhaseField) DemoScenes.build(demo, 1).bodies().get(0).damage()).viscosity();
     }
 
     private static double waveSpeed(String demo) {

@@ -9,6 +9,7 @@ import dev.fray.core.sim.StepAction;
 import dev.fray.core.sim.StepInfo;
 import dev.fray.core.sim.StepListener;
 import dev.fray.io.AtomicFiles;
+import dev.fray.io.result.CrackBand;
 
 import java.io.IOException;
 import java.io.OutputStream;
@@ -19,8 +20,12 @@ import java.nio.file.Path;
 /**
  * Step listener that records {@link Diagnostics} as CSV: a header of {@link Diagnostics#columns()} (the
  * scene-independent {@link Diagnostics#COLUMNS}, then force and work columns per grip and obstacle; names carry the
- * SI unit), then one row per recorded step. Doubles are written with {@link Double#toString(double)}, which
- * round-trips exactly; the step column is an integer.
+ * SI unit) and {@link #CRACK_COLUMNS}, then one row per recorded step. Doubles are written with
+ * {@link Double#toString(double)}, which round-trips exactly; the step column is an integer.
+ *
+ * <p>The crack columns ({@link CrackBand}: volume of partly damaged material, crack area and their ratio, the
+ * band width) cost a pass over the particles, so they are filled on rows at frame times (k / frameRate) and left
+ * empty on the rows between; a width with no crack surface is written NaN.
  *
  * <p>Rows go to a temporary file next to the target while the run goes on; {@link #finish} (which the run loop
  * calls also after a STOP or a divergence) renames it onto the target, so {@code diagnostics.csv} is either the
@@ -33,6 +38,8 @@ import java.nio.file.Path;
 public final class DiagnosticsCsvWriter implements StepListener {
     /** File name used by {@link #inFolder(Path)}. */
     public static final String FILE_NAME = "diagnostics.csv";
+    /** Columns after {@link Diagnostics#COLUMNS}: the crack band of {@link CrackBand}, on frame rows. */
+    public static final String[] CRACK_COLUMNS = {"crack_band_volume_m3", "crack_area_m2", "crack_band_width_m"};
     /** Default of everyNSteps: every step. */
     public static final int DEFAULT_EVERY_N_STEPS = 1;
 
@@ -41,6 +48,7 @@ public final class DiagnosticsCsvWriter implements StepListener {
     private AtomicFiles.Pending pending;
     private long lastStep = -1;
     private long rows;
+    private final CrackBand crackBand = new CrackBand();
 
     /**
      * @param target      the CSV file to produce; its folder must exist
@@ -84,7 +92,8 @@ public final class DiagnosticsCsvWriter implements StepListener {
                     Files.copy(target, pending.stream());
                 } else {
                     rows = 0;
-                    write(String.join(",", view.diagnostics().columns()) + "\n");
+                    write(String.join(",", view.diagnostics().columns()) + "," + String.join(",", CRACK_COLUMNS)
+                            + "\n");
                 }
             } catch (IOException e) {
                 pending.close();
@@ -122,7 +131,7 @@ public final class DiagnosticsCsvWriter implements StepListener {
         pending = null;
         try (p) {
             if (view.stepCount() != lastStep) {
-                appendRow(p.stream(), view.diagnostics());
+                appendRow(p.stream(), view);
                 lastStep = view.stepCount();
             }
             p.commit();
@@ -138,23 +147,37 @@ public final class DiagnosticsCsvWriter implements StepListener {
             return;
         }
         try {
-            appendRow(pending.stream(), view.diagnostics());
+            appendRow(pending.stream(), view);
         } catch (IOException e) {
             throw new InvalidInputException(FrayMessage.FILE_ERROR, e, target.toString(), e.toString());
         }
         lastStep = view.stepCount();
     }
 
-    private void appendRow(OutputStream out, Diagnostics d) throws IOException {
+    private void appendRow(OutputStream out, SimulationView view) throws IOException {
+        Diagnostics d = view.diagnostics();
         double[] v = d.values();
         StringBuilder b = new StringBuilder(16 * v.length);
         b.append(d.step());
         for (int i = 1; i < v.length; i++) {
             b.append(',').append(Double.toString(v[i]));
         }
+        if (isFrame(view)) {
+            CrackBand.Measure m = crackBand.measure(view);
+            b.append(',').append(m.bandVolume()).append(',').append(m.crackArea()).append(',').append(m.width());
+        } else {
+            b.append(",,,");
+        }
         b.append('\n');
         out.write(b.toString().getBytes(StandardCharsets.US_ASCII));
         rows++;
+    }
+
+    /** Whether the view is at a frame time k / frameRate, computed as the simulation computes frame times. */
+    static boolean isFrame(SimulationView view) {
+        double rate = view.scene().frameRate();
+        double t = view.time();
+        return Math.round(t * rate) / rate == t;
     }
 
     private void write(String s) throws IOException {

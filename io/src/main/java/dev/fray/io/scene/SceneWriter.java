@@ -23,6 +23,8 @@ import dev.fray.damage.elastic.HenckyStVK;
 import dev.fray.damage.elastic.NeoHookean;
 import dev.fray.damage.fiber.FiberReinforced;
 import dev.fray.damage.fracture.AnisotropicPhaseField;
+import dev.fray.damage.fracture.CrackDensity;
+import dev.fray.damage.fracture.IsotropicPhaseField;
 import dev.fray.damage.fracture.PhaseFieldAT2;
 import dev.fray.damage.fracture.RankineDamage;
 import dev.fray.damage.plugin.ElasticLawProviders;
@@ -333,12 +335,17 @@ public final class SceneWriter {
      */
     private static ModelDescription fracture(DamageModel model, String who) {
         Map<String, Object> p = new LinkedHashMap<>();
-        if (model instanceof PhaseFieldAT2 pf) {
-            phaseField(p, pf.fractureEnergy(), pf.lengthScale(), pf.viscosity(), pf.residualStiffness());
-            return new ModelDescription(PhaseFieldAT2.NAME, p);
+        if (model instanceof IsotropicPhaseField pf) {
+            phaseField(p, pf.fractureEnergy(), pf.strength(), pf.strengthModulus(), pf.lengthScale(),
+                    pf.viscosity(), pf.residualStiffness());
+            return new ModelDescription(pf.name(), p);
         }
         if (model instanceof AnisotropicPhaseField af) {
-            phaseField(p, af.fractureEnergy(), af.lengthScale(), af.viscosity(), af.residualStiffness());
+            if (af.crackDensity() != CrackDensity.AT2) {
+                p.put("crackDensity", af.crackDensity().key());
+            }
+            phaseField(p, af.fractureEnergy(), af.strength(), af.strengthModulus(), af.lengthScale(),
+                    af.viscosity(), af.residualStiffness());
             for (int k = 1; k <= af.families(); k++) {
                 p.put("fiberStrength" + k, af.fiberStrength(k));
             }
@@ -370,9 +377,15 @@ public final class SceneWriter {
         return null;
     }
 
-    private static void phaseField(Map<String, Object> p, double gc, double length, double viscosity,
-                                   double residual) {
-        p.put("fractureEnergy", gc);
+    private static void phaseField(Map<String, Object> p, double gc, double strength, double modulus,
+                                   double length, double viscosity, double residual) {
+        if (Double.isNaN(strength)) {
+            p.put("fractureEnergy", gc);
+        } else {
+            // The user chose a strength: keep it, so the fracture energy follows the length scale on any grid.
+            p.put("strength", strength);
+            p.put("youngsModulus", modulus);
+        }
         putUnlessDefault(p, "lengthScale", length, Double.NaN);
         putUnlessDefault(p, "viscosity", viscosity, 0);
         putUnlessDefault(p, "residualStiffness", residual, PhaseFieldAT2.DEFAULT_RESIDUAL_STIFFNESS);

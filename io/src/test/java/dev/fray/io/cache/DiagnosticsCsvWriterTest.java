@@ -6,6 +6,7 @@ import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import dev.fray.core.boundary.Shapes;
+import dev.fray.core.damage.DamageModel;
 import dev.fray.core.error.FrayMessage;
 import dev.fray.core.error.InvalidInputException;
 import dev.fray.core.sim.Body;
@@ -16,6 +17,8 @@ import dev.fray.core.sim.StepAction;
 import dev.fray.core.sim.StepListener;
 import dev.fray.core.testing.FrayTestBase;
 import dev.fray.damage.Elastic;
+import dev.fray.damage.Fracture;
+import dev.fray.io.result.CrackBand;
 
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
@@ -78,13 +81,15 @@ class DiagnosticsCsvWriterTest extends FrayTestBase {
             sim.addStepListener(r);
             sim.run(0.01);
             List<String[]> rows = read(dir.resolve("diagnostics.csv"));
-            assertEquals(List.of(Diagnostics.COLUMNS), List.of(rows.get(0)));
+            List<String> header = new ArrayList<>(List.of(Diagnostics.COLUMNS));
+            header.addAll(List.of(DiagnosticsCsvWriter.CRACK_COLUMNS));
+            assertEquals(header, List.of(rows.get(0)));
             assertEquals(r.seen.size(), rows.size() - 1, "initial state plus one row per step");
             assertEquals(sim.stepCount() + 1, w.rows());
             for (int i = 0; i < r.seen.size(); i++) {
                 double[] expected = r.seen.get(i).values();
                 String[] got = rows.get(i + 1);
-                assertEquals(expected.length, got.length);
+                assertEquals(expected.length + DiagnosticsCsvWriter.CRACK_COLUMNS.length, got.length);
                 assertEquals(r.seen.get(i).step(), Long.parseLong(got[0]));
                 for (int k = 1; k < expected.length; k++) {
                     assertEquals(Double.doubleToLongBits(expected[k]), Double.doubleToLongBits(
@@ -92,6 +97,45 @@ class DiagnosticsCsvWriterTest extends FrayTestBase {
                 }
             }
         }
+    }
+
+    @Test
+    void crackColumnsAreFilledOnFrameRows() throws IOException {
+        Scene scene = Scene.builder().cellSize(1.0 / 32).threads(2).frameRate(2000).gravity(0, 0, 0)
+                .add(Body.named("cut").shape(Shapes.box(0.3, 0.3, 0.3, 0.7, 0.5, 0.5))
+                        .material(Elastic.fixedCorotated(1e4, 0.3, 1000))
+                        .damage(Fracture.phaseField().fractureEnergy(1).build())
+                        .initialChannel(DamageModel.DAMAGE, (x, y, z, out) -> out[0] = Math.exp(-Math.abs(x - 0.5)
+                                * 16))
+                        .build())
+                .build();
+        List<double[]> expected = new ArrayList<>();
+        try (Simulation sim = new Simulation(scene)) {
+            CrackBand band = new CrackBand();
+            sim.addStepListener(DiagnosticsCsvWriter.inFolder(dir));
+            sim.addFrameListener((frame, time, view, last) -> {
+                CrackBand.Measure m = band.measure(view);
+                expected.add(new double[] {m.bandVolume(), m.crackArea(), m.width()});
+            });
+            sim.runFrames(2);
+        }
+        List<String[]> rows = read(dir.resolve("diagnostics.csv"));
+        int frames = 0;
+        int c = Diagnostics.COLUMNS.length;
+        for (String[] row : rows.subList(1, rows.size())) {
+            double t = Double.parseDouble(row[1]);
+            if (Math.round(t * 2000) / 2000.0 == t) {
+                double[] e = expected.get(frames++);
+                for (int k = 0; k < 3; k++) {
+                    assertEquals(Double.doubleToLongBits(e[k]), Double.doubleToLongBits(Double.parseDouble(row[c + k])),
+                            "frame row at t = " + t + ", " + DiagnosticsCsvWriter.CRACK_COLUMNS[k]);
+                }
+                assertTrue(e[2] > 0, "a crack with a band at t = " + t);
+            } else {
+                assertEquals(List.of("", "", ""), List.of(row).subList(c, c + 3), "empty between frames");
+            }
+        }
+        assertEquals(3, frames, "frames 0, 1 and 2");
     }
 
     @Test
