@@ -146,6 +146,42 @@ public interface MaterialLaw {
         return split == TensionSplit.LAW_DEFAULT || split == TensionSplit.NONE;
     }
 
+    /** Values per particle written by {@link #stressDifferential}: dP/dF as a 9x9 matrix. */
+    int DIFFERENTIAL_SIZE = 81;
+
+    /**
+     * Whether {@link #stressDifferential} is implemented. Tells the truth: the implicit integrator needs it, and a
+     * scene that asks for implicit integration with a law that answers false is refused when it is built.
+     *
+     * @return true if the law provides its stress differential; false by default
+     */
+    default boolean hasStressDifferential() {
+        return false;
+    }
+
+    /**
+     * The stress differential A = dP/dF of each particle, the linear map dP = A : dF that the implicit integrator
+     * uses for its Hessian-vector products. With damage the stress is P = g P_degraded + P_kept (the parts of the
+     * split the damage model chose, g its degradation held fixed) and A is its derivative at fixed g.
+     *
+     * <p>Layout: for particle p, {@code out[81(p - from) + 9 (3a + b) + 3c + d] = dP_ab / dF_cd} (dimensionless
+     * index pairs row-major, values in Pa). A is symmetric (it is the Hessian of the energy density).
+     *
+     * @param state       particle data (input, not modified)
+     * @param from        first particle, inclusive
+     * @param to          last particle, exclusive
+     * @param split       the split damage degrades, or null for the undamaged law
+     * @param degradation g per particle at [p - from] (input), or null for g = 1; ignored when split is null
+     * @param definite    whether to project each particle's A onto the positive semi-definite matrices (eigenvalues
+     *                    clamped at zero, Teran, Sifakis, Irving and Fedkiw 2005), so Newton directions descend
+     * @param out         (output) A, 81 per particle
+     * @throws UnsupportedOperationException if {@link #hasStressDifferential()} is false (the default)
+     */
+    default void stressDifferential(MaterialState state, int from, int to, TensionSplit split, double[] degradation,
+                                    boolean definite, double[] out) {
+        throw new UnsupportedOperationException(name() + " does not provide its stress differential dP/dF");
+    }
+
     /**
      * Whether {@link #projectDeformation} does anything. Tells the truth: the solver skips the call when false.
      *

@@ -45,6 +45,8 @@ public abstract class MaterialLawContract extends FrayTestBase {
     protected static final double OBJECTIVITY_TOLERANCE = 1e-12;
     /** Relative error allowed between P and the central difference of psi (VALIDATION.md A3). */
     protected static final double DERIVATIVE_TOLERANCE = 1e-6;
+    /** Relative error allowed between dP/dF and the central difference of P (VALIDATION.md F27). */
+    protected static final double DIFFERENTIAL_TOLERANCE = 1e-5;
     /** Central-difference step, relative to ||F||_F: balances truncation (h^2) against rounding (eps / h). */
     protected static final double DIFFERENCE_STEP = 1e-6;
     /** Relative difference allowed between the law's tau and P F^T, and between tau and its transpose. */
@@ -516,6 +518,78 @@ public abstract class MaterialLawContract extends FrayTestBase {
 
     // ---------------------------------------------------------------------------------------------------------
     // helpers shared by subclasses
+
+    /**
+     * dP/dF against central differences of P on a random F with det F &gt; 0, undamaged and, for every split the
+     * law offers, degraded (P = g P_degraded + P_kept at g = 0.3), relative error below
+     * {@link #DIFFERENTIAL_TOLERANCE}; for laws that provide the differential.
+     *
+     * @param index    random case
+     * @param reporter receives the measured errors
+     */
+    @ParameterizedTest(name = "case {0}")
+    @MethodSource("randomCases")
+    public void stressDifferentialMatchesCentralDifferences(int index, TestReporter reporter) {
+        // common practice, no source: dP = (dP/dF) : dF, checked by central differences (VALIDATION.md F27)
+        MaterialLaw law = createLaw();
+        assumeTrue(law.hasStressDifferential(), "law does not provide its stress differential");
+        double[] f = store(randomDeformation(index));
+        assertTrue(det(f) > 0, "generator gave det F <= 0");
+        double step = DIFFERENCE_STEP * norm(f);
+        double floor = STRESS_FLOOR * stiffness(law);
+        ArrayMaterialState state = createState(f);
+        double worst = StressDifferentialChecks.differenceError(law, state, null, 1, step, floor);
+        StringBuilder seen = new StringBuilder("undamaged " + worst);
+        for (TensionSplit split : TensionSplit.values()) {
+            if (law.supportsSplit(split)) {
+                double e = StressDifferentialChecks.differenceError(law, state, split, 0.3, step, floor);
+                seen.append(", ").append(split).append(' ').append(e);
+                worst = Math.max(worst, e);
+            }
+        }
+        reporter.publishEntry("relative error of dP/dF against central differences", seen.toString());
+        assertTrue(worst < DIFFERENTIAL_TOLERANCE, seen + " for F = " + Arrays.toString(f));
+    }
+
+    /**
+     * The projected differential has no eigenvalue below zero (EJML's eigenvalues, to rounding), and at a rigid
+     * rotation, where the differential is that of linear elasticity and so semi-definite, the projection changes
+     * nothing.
+     *
+     * @param index    random case
+     * @param reporter receives the smallest eigenvalue
+     */
+    @ParameterizedTest(name = "case {0}")
+    @MethodSource("randomCases")
+    public void projectedStressDifferentialIsPositiveSemiDefinite(int index, TestReporter reporter) {
+        // published: Teran, Sifakis, Irving and Fedkiw 2005, definiteness fix by eigenvalue clamping; EJML as the
+        // reference eigen-decomposition; at a rotation every law linearises to linear elasticity, whose energy is convex (Bonet and Wood)
+        MaterialLaw law = createLaw();
+        assumeTrue(law.hasStressDifferential(), "law does not provide its stress differential");
+        double m = stiffness(law);
+        double[] f = store(randomDeformation(index));
+        ArrayMaterialState state = createState(f);
+        double[] projected = new double[MaterialLaw.DIFFERENTIAL_SIZE];
+        law.stressDifferential(state, 0, 1, TensionSplit.LAW_DEFAULT, new double[] {0.5}, true, projected);
+        double[] eig = StressDifferentialChecks.eigenvalues(projected);
+        double smallest = Arrays.stream(eig).min().orElseThrow();
+        double largest = Arrays.stream(eig).map(Math::abs).max().orElseThrow();
+        reporter.publishEntry("smallest / largest eigenvalue", Double.toString(smallest / largest));
+        // rounding of a 9x9 eigen-decomposition scales with the largest eigenvalue (a stretched exponential fiber
+        // can make it 1e17 times the law's stiffness)
+        assertTrue(smallest >= -1e-12 * Math.max(largest, m), "eigenvalue " + smallest + " Pa of the projected "
+                + "differential, largest " + largest);
+        double[] rest = store(RandomMatrices.rotation(caseRandom(index)));
+        ArrayMaterialState near = createState(rest);
+        double[] exact = new double[MaterialLaw.DIFFERENTIAL_SIZE];
+        law.stressDifferential(near, 0, 1, null, null, false, exact);
+        law.stressDifferential(near, 0, 1, null, null, true, projected);
+        double d = 0;
+        for (int i = 0; i < exact.length; i++) {
+            d = Math.max(d, Math.abs(exact[i] - projected[i]));
+        }
+        assertTrue(d <= 1e-9 * m, "projection changed a convex differential by " + d + " Pa");
+    }
 
     /**
      * Largest relative error, over the nine entries, between P(F) and the central difference of psi.

@@ -340,6 +340,49 @@ public final class FixedCorotated extends IsotropicElasticLaw {
         putSymmetric(out, o, t00, t11, t22, t01, t02, t12);
     }
 
+    /** {@inheritDoc} mu sum (s_i - 1)^2 + lambda/2 (J - 1)^2. */
+    @Override
+    void principalDerivatives(double s0, double s1, double s2, double[] g, double[] hess) {
+        PrincipalTangent.addStretch(2.0 * mu, 1.0, s0, s1, s2, g, hess);
+        PrincipalTangent.addVolume(s0, s1, s2, lambda * (s0 * s1 * s2 - 1.0), lambda, g, hess);
+    }
+
+    /** {@inheritDoc} The parts named at the split methods, term by term. */
+    @Override
+    void degradableDerivatives(TensionSplit split, double s0, double s1, double s2, double[] g, double[] hess) {
+        double m2 = 2.0 * mu;
+        double j = s0 * s1 * s2;
+        switch (split) {
+            case NONE -> principalDerivatives(s0, s1, s2, g, hess);
+            case SPECTRAL -> {
+                double[] s = {s0, s1, s2};
+                for (int i = 0; i < 3; i++) {
+                    if (s[i] > 1.0) {
+                        g[i] += m2 * (s[i] - 1.0);
+                        hess[4 * i] += m2;
+                    }
+                }
+                if (j > 1.0) {
+                    PrincipalTangent.addVolume(s0, s1, s2, lambda * (j - 1.0), lambda, g, hess);
+                }
+            }
+            default -> {
+                // deviatoric mu sum (s_i - m)^2, always; mean 3 mu (m - 1)^2 when m > 1; volume when J > 1
+                double m = (s0 + s1 + s2) / 3.0;
+                double[] s = {s0, s1, s2};
+                for (int i = 0; i < 3; i++) {
+                    g[i] += m2 * (s[i] - m) + (m > 1.0 ? m2 * (m - 1.0) : 0.0);
+                    for (int k = 0; k < 3; k++) {
+                        hess[3 * i + k] += m2 * ((i == k ? 1.0 : 0.0) - 1.0 / 3.0) + (m > 1.0 ? m2 / 3.0 : 0.0);
+                    }
+                }
+                if (j > 1.0) {
+                    PrincipalTangent.addVolume(s0, s1, s2, lambda * (j - 1.0), lambda, g, hess);
+                }
+            }
+        }
+    }
+
     /** @return the law's name and constants, for diagnostics */
     @Override
     public String toString() {

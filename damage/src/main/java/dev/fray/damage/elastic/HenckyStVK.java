@@ -257,6 +257,49 @@ public final class HenckyStVK extends IsotropicElasticLaw {
         return s >= STRETCH_FLOOR ? 1.0 : s / STRETCH_FLOOR;
     }
 
+    /** {@inheritDoc} Hooke's law in the log stretches e_i, chained through e_i = ln s_i. */
+    @Override
+    void principalDerivatives(double s0, double s1, double s2, double[] g, double[] hess) {
+        degradableDerivatives(TensionSplit.NONE, s0, s1, s2, g, hess);
+    }
+
+    /** {@inheritDoc} The parts named at the split methods, in e_i, chained through e_i = ln s_i. */
+    @Override
+    void degradableDerivatives(TensionSplit split, double s0, double s1, double s2, double[] g, double[] hess) {
+        double[] s = {s0, s1, s2};
+        double[] e = {logStretch(s0), logStretch(s1), logStretch(s2)};
+        double tr = e[0] + e[1] + e[2];
+        double bulk = lambda + 2.0 * mu / 3.0;
+        double m2 = 2.0 * mu;
+        double[] ge = new double[3];
+        double[] he = new double[9];
+        for (int i = 0; i < 3; i++) {
+            for (int k = 0; k < 3; k++) {
+                double d = i == k ? 1.0 : 0.0;
+                switch (split) {
+                    case NONE -> he[3 * i + k] = m2 * d + lambda;
+                    case VOLUMETRIC_DEVIATORIC -> he[3 * i + k] = m2 * (d - 1.0 / 3.0) + (tr > 0.0 ? bulk : 0.0);
+                    default -> he[3 * i + k] = (tr > 0.0 ? lambda : 0.0) + (e[i] > 0.0 ? m2 * d : 0.0);
+                }
+            }
+            switch (split) {
+                case NONE -> ge[i] = m2 * e[i] + lambda * tr;
+                case VOLUMETRIC_DEVIATORIC -> ge[i] = m2 * (e[i] - tr / 3.0) + bulk * Math.max(tr, 0.0);
+                default -> ge[i] = lambda * Math.max(tr, 0.0) + m2 * Math.max(e[i], 0.0);
+            }
+        }
+        for (int i = 0; i < 3; i++) {
+            double di = s[i] >= STRETCH_FLOOR ? 1.0 / s[i] : 1.0 / STRETCH_FLOOR;
+            double ci = s[i] >= STRETCH_FLOOR ? -1.0 / (s[i] * s[i]) : 0.0;
+            g[i] += ge[i] * di;
+            hess[4 * i] += ge[i] * ci;
+            for (int k = 0; k < 3; k++) {
+                double dk = s[k] >= STRETCH_FLOOR ? 1.0 / s[k] : 1.0 / STRETCH_FLOOR;
+                hess[3 * i + k] += he[3 * i + k] * di * dk;
+            }
+        }
+    }
+
     /** @return the law's name and constants, for diagnostics */
     @Override
     public String toString() {

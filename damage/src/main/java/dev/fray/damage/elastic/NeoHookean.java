@@ -319,6 +319,59 @@ public final class NeoHookean extends IsotropicElasticLaw {
         return j >= J_FLOOR ? Math.log(j) : LOG_J_FLOOR + (j - J_FLOOR) / J_FLOOR;
     }
 
+    /** {@inheritDoc} mu/2 sum s_i^2 plus the volume function -mu l(J) + lambda/2 l(J)^2. */
+    @Override
+    void principalDerivatives(double s0, double s1, double s2, double[] g, double[] hess) {
+        PrincipalTangent.addStretch(mu, 0.0, s0, s1, s2, g, hess);
+        double j = s0 * s1 * s2;
+        double l = logJ(j), l1 = logSlope(j), l2 = logCurvature(j);
+        PrincipalTangent.addVolume(s0, s1, s2, (lambda * l - mu) * l1,
+                lambda * l1 * l1 + (lambda * l - mu) * l2, g, hess);
+    }
+
+    /** {@inheritDoc} The parts named at the split methods. */
+    @Override
+    void degradableDerivatives(TensionSplit split, double s0, double s1, double s2, double[] g, double[] hess) {
+        double j = s0 * s1 * s2;
+        switch (split) {
+            case NONE -> principalDerivatives(s0, s1, s2, g, hess);
+            case SPECTRAL -> {
+                double[] s = {s0, s1, s2};
+                for (int i = 0; i < 3; i++) {
+                    if (s[i] > 1.0) {
+                        // phi(s) = mu/2 (s^2 - 1) - mu ln s
+                        g[i] += mu * (s[i] - 1.0 / s[i]);
+                        hess[4 * i] += mu * (1.0 + 1.0 / (s[i] * s[i]));
+                    }
+                }
+                if (j > 1.0) {
+                    double l = logJ(j), l1 = logSlope(j), l2 = logCurvature(j);
+                    PrincipalTangent.addVolume(s0, s1, s2, lambda * l * l1, lambda * (l1 * l1 + l * l2), g, hess);
+                }
+            }
+            default -> {
+                if (j > 1.0) {
+                    principalDerivatives(s0, s1, s2, g, hess);
+                    return;
+                }
+                // deviatoric mu/2 (sum s_i^2 - 3 J^(2/3))
+                PrincipalTangent.addStretch(mu, 0.0, s0, s1, s2, g, hess);
+                double c = Math.cbrt(j);
+                PrincipalTangent.addVolume(s0, s1, s2, -mu / c, mu / (3.0 * c * c * c * c), g, hess);
+            }
+        }
+    }
+
+    /** d ln J / dJ, continued below the floor. */
+    private static double logSlope(double j) {
+        return j >= J_FLOOR ? 1.0 / j : 1.0 / J_FLOOR;
+    }
+
+    /** d^2 ln J / dJ^2, continued below the floor. */
+    private static double logCurvature(double j) {
+        return j >= J_FLOOR ? -1.0 / (j * j) : 0.0;
+    }
+
     /** @return the law's name and constants, for diagnostics */
     @Override
     public String toString() {

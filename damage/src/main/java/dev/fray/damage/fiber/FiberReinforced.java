@@ -206,6 +206,26 @@ public final class FiberReinforced implements MaterialLaw {
             return capSlope + capCurvature * (d - capStrain);
         }
 
+        /**
+         * Curvature of the energy in I4, for the stress differential.
+         *
+         * @param i4 squared fiber stretch |F a0|<sup>2</sup>, dimensionless
+         * @return d<sup>2</sup>psi_f/dI4<sup>2</sup>, Pa; 0 for i4 &lt;= 1; NaN for NaN
+         */
+        public double curvature(double i4) {
+            double d = i4 - 1.0;
+            if (d <= 0.0) {
+                return 0.0;
+            }
+            if (kind == Kind.QUADRATIC) {
+                return stiffness;
+            }
+            if (d <= capStrain) {
+                return stiffness * Math.exp(exponent * d * d) * (1.0 + 2.0 * exponent * d * d);
+            }
+            return capCurvature;
+        }
+
         /** @return whether o is a term of the same kind and constants */
         @Override
         public boolean equals(Object o) {
@@ -413,6 +433,78 @@ public final class FiberReinforced implements MaterialLaw {
     @Override
     public boolean supportsSplit(TensionSplit split) {
         return base.supportsSplit(split);
+    }
+
+    /** {@inheritDoc} Whenever the base law does. */
+    @Override
+    public boolean hasStressDifferential() {
+        return base.hasStressDifferential();
+    }
+
+    /**
+     * {@inheritDoc}
+     *
+     * <p>The base law's differential plus, per family (all degradable, so scaled by g),
+     * <pre>
+     *   dP_f = c (dF a0) (x) a0 + 4 psi_f'' / |a0|^4 ((F a0) . (dF a0)) (F a0) (x) a0,   c = 2 psi_f' / |a0|^2
+     * </pre>
+     * Both terms are positive semi-definite already (psi_f' and psi_f'' are &gt;= 0 for both kinds), so the
+     * projection needs nothing beyond the base law's.
+     */
+    @Override
+    public void stressDifferential(MaterialState state, int from, int to, TensionSplit split, double[] degradation,
+                                   boolean definite, double[] out) {
+        base.stressDifferential(state, from, to, split, degradation, definite, out);
+        boolean damaged = split != null && degradation != null;
+        double[] f = state.deformation();
+        double[] fa = new double[9];
+        for (int k = 0; k < terms.length; k++) {
+            Term t = terms[k];
+            double[] a = state.channel(referenceNames[k]);
+            for (int p = from; p < to; p++) {
+                int i = 9 * p;
+                int q = 3 * p;
+                double ax = a[q], ay = a[q + 1], az = a[q + 2];
+                double n2 = ax * ax + ay * ay + az * az;
+                if (n2 == 0.0) {
+                    continue;
+                }
+                double fx = f[i] * ax + f[i + 1] * ay + f[i + 2] * az;
+                double fy = f[i + 3] * ax + f[i + 4] * ay + f[i + 5] * az;
+                double fz = f[i + 6] * ax + f[i + 7] * ay + f[i + 8] * az;
+                double i4 = (fx * fx + fy * fy + fz * fz) / n2;
+                if (!(i4 > 1.0)) {
+                    continue;
+                }
+                double w = damaged ? degradation[p - from] : 1.0;
+                double c = w * 2.0 * t.derivative(i4) / n2;
+                double r = w * 4.0 * t.curvature(i4) / (n2 * n2);
+                double[] av = {ax, ay, az};
+                double[] fv = {fx, fy, fz};
+                // (F a0) (x) a0, flattened
+                for (int x = 0; x < 3; x++) {
+                    for (int y = 0; y < 3; y++) {
+                        fa[3 * x + y] = fv[x] * av[y];
+                    }
+                }
+                int o = DIFFERENTIAL_SIZE * (p - from);
+                for (int x = 0; x < 9; x++) {
+                    int row = o + 9 * x;
+                    double rx = r * fa[x];
+                    for (int y = 0; y < 9; y++) {
+                        out[row + y] += rx * fa[y];
+                    }
+                }
+                // c (I (x) a0 a0^T): dP_ab/dF_cd = c delta_ac a_b a_d
+                for (int aa = 0; aa < 3; aa++) {
+                    for (int b = 0; b < 3; b++) {
+                        for (int d = 0; d < 3; d++) {
+                            out[o + 9 * (3 * aa + b) + 3 * aa + d] += c * av[b] * av[d];
+                        }
+                    }
+                }
+            }
+        }
     }
 
     /** Adds each family's tau to tau[9(p - from)] and, when psi is not null, its energy to psi[p - from]. */
