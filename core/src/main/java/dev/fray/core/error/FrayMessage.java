@@ -27,6 +27,10 @@ public enum FrayMessage {
      * The simulation blew up: {0} reason, {1} body, {2} particle id, {3} step, {4} time in s, {5} suggested fix.
      */
     DIVERGED("simulation diverged ({0}) at body \"{1}\", particle {2}, step {3}, t = {4} s; {5}"),
+    /**
+     * A scene part that the implicit integrator does not handle: {0} the part, {1} why, {2} what to use instead.
+     */
+    IMPLICIT_UNSUPPORTED("{0} cannot run with run.integration = implicit: {1}; {2}"),
     /** A run was asked for that cannot run: {0} explanation. */
     ILLEGAL_STATE("{0}"),
     /** A bug inside Fray: {0} explanation. */

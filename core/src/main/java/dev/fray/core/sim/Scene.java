@@ -22,6 +22,10 @@ import java.util.Set;
 public final class Scene {
     /** Default Courant number. */
     public static final double DEFAULT_CFL = 0.4;
+    /** Default stopping tolerance of the implicit solve, relative residual. */
+    public static final double DEFAULT_IMPLICIT_TOLERANCE = 1e-5;
+    /** Default Newton iterations per implicit step. */
+    public static final int DEFAULT_IMPLICIT_ITERATIONS = 20;
     /** Default frames per second of output. */
     public static final double DEFAULT_FRAME_RATE = 24;
     /** Wall faces in the order used by {@link #walls()}. */
@@ -46,6 +50,9 @@ public final class Scene {
     private final int phaseFieldMaxIterations;
     private final double separationThreshold;
     private final double separationFriction;
+    private final Integration integration;
+    private final double implicitTolerance;
+    private final int implicitMaxIterations;
 
     private Scene(Builder b) {
         domain = b.domain;
@@ -67,6 +74,9 @@ public final class Scene {
         phaseFieldMaxIterations = b.phaseFieldMaxIterations;
         separationThreshold = b.separationThreshold;
         separationFriction = b.separationFriction;
+        integration = b.integration;
+        implicitTolerance = b.implicitTolerance;
+        implicitMaxIterations = b.implicitMaxIterations;
     }
 
     /** @return a new builder with the defaults */
@@ -117,6 +127,24 @@ public final class Scene {
     /** @return Courant number of the adaptive time step */
     public double cfl() {
         return cfl;
+    }
+
+    /** @return how the scene integrates in time (explicit, implicit, or auto) */
+    public Integration integration() {
+        return integration;
+    }
+
+    /**
+     * @return stopping tolerance of the implicit solve: the Newton residual must fall to this fraction of its value
+     *         at the step's start (see {@link dev.fray.core.step.ImplicitStep})
+     */
+    public double implicitTolerance() {
+        return implicitTolerance;
+    }
+
+    /** @return Newton iterations per implicit step before the step is halved */
+    public int implicitMaxIterations() {
+        return implicitMaxIterations;
     }
 
     /** @return velocity damping rate, 1/s (grid velocities decay as exp(-rate t)) */
@@ -199,6 +227,9 @@ public final class Scene {
         b.phaseFieldMaxIterations = phaseFieldMaxIterations;
         b.separationThreshold = separationThreshold;
         b.separationFriction = separationFriction;
+        b.integration = integration;
+        b.implicitTolerance = implicitTolerance;
+        b.implicitMaxIterations = implicitMaxIterations;
         return b;
     }
 
@@ -224,6 +255,9 @@ public final class Scene {
         private int phaseFieldMaxIterations = 200;
         private double separationThreshold = Double.NaN;
         private double separationFriction = 0;
+        private Integration integration = Integration.EXPLICIT;
+        private double implicitTolerance = DEFAULT_IMPLICIT_TOLERANCE;
+        private int implicitMaxIterations = DEFAULT_IMPLICIT_ITERATIONS;
 
         private Builder() {
         }
@@ -419,6 +453,34 @@ public final class Scene {
         }
 
         /**
+         * How the scene integrates in time: {@link Integration#EXPLICIT} (the default), {@link Integration#IMPLICIT}
+         * (backward Euler, steps limited by motion rather than by the elastic wave), or {@link Integration#AUTO}.
+         *
+         * @param mode the integration
+         * @return this
+         */
+        public Builder integration(Integration mode) {
+            this.integration = mode;
+            return this;
+        }
+
+        /**
+         * Settings of the implicit solve.
+         *
+         * @param tolerance     stop when the Newton residual has fallen to this fraction of its value at the
+         *                      step's start (see {@link dev.fray.core.step.ImplicitStep}), (0, 1]; default
+         *                      {@value #DEFAULT_IMPLICIT_TOLERANCE}
+         * @param maxIterations Newton iterations before a step is halved, 1 to 1000; default
+         *                      {@value #DEFAULT_IMPLICIT_ITERATIONS}
+         * @return this
+         */
+        public Builder implicitSolver(double tolerance, int maxIterations) {
+            this.implicitTolerance = tolerance;
+            this.implicitMaxIterations = maxIterations;
+            return this;
+        }
+
+        /**
          * Turns off {@link #separation}: every node carries one velocity field (the default).
          *
          * @return this
@@ -427,6 +489,23 @@ public final class Scene {
             this.separationThreshold = Double.NaN;
             this.separationFriction = 0;
             return this;
+        }
+
+        /** Refuses, at build time, what the implicit integrator does not handle, saying what to use instead. */
+        private void checkImplicit() {
+            if (!Double.isNaN(separationThreshold)) {
+                throw new InvalidInputException(FrayMessage.IMPLICIT_UNSUPPORTED, "run.separation",
+                        "two velocity fields per node are not in the implicit solve yet",
+                        "turn separation off or use run.integration = explicit");
+            }
+            for (Body b : bodies) {
+                if (!b.material().hasStressDifferential()) {
+                    throw new InvalidInputException(FrayMessage.IMPLICIT_UNSUPPORTED, "body \"" + b.name()
+                            + "\" (material " + b.material().name() + ")",
+                            "the material law does not provide its stress differential (plastic laws do not yet)",
+                            "use run.integration = explicit or auto, which falls back to explicit");
+                }
+            }
         }
 
         /**
@@ -475,6 +554,12 @@ public final class Scene {
             if (!Double.isNaN(separationThreshold) || separationFriction != 0) {
                 Checks.inRange("separation damageThreshold", separationThreshold, 0, true, 1, false);
                 Checks.inRange("separation friction", separationFriction, 0, false, Double.MAX_VALUE, false);
+            }
+            Checks.notNull("integration", integration);
+            Checks.inRange("implicit tolerance", implicitTolerance, 0, true, 1, true);
+            Checks.inRange("implicit max iterations", implicitMaxIterations, 1, 1000);
+            if (integration == Integration.IMPLICIT) {
+                checkImplicit();
             }
             Set<String> names = new HashSet<>();
             for (Body b : bodies) {

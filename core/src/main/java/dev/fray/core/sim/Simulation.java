@@ -21,6 +21,9 @@ import dev.fray.core.particles.ParticleSampler;
 import dev.fray.core.particles.ParticleStore;
 import dev.fray.core.step.DivergenceGuard;
 import dev.fray.core.step.ExplicitStep;
+import dev.fray.core.step.ImplicitStatistics;
+import dev.fray.core.step.ImplicitStep;
+import dev.fray.core.step.Integrator;
 import dev.fray.core.step.StepContext;
 import dev.fray.core.step.TimeStepPolicy;
 import dev.fray.core.transfer.FieldRouting;
@@ -47,8 +50,9 @@ public final class Simulation implements SimulationView, AutoCloseable {
     private final FieldSet fields;
     private final Workers workers;
     private final StepContext ctx;
-    private final ExplicitStep integrator;
+    private final Integrator integrator;
     private final TimeStepPolicy policy;
+    private final boolean implicit;
     private final DiagnosticsMeter meter;
     private final List<String> bodyNames;
     private final List<StepListener> stepListeners = new CopyOnWriteArrayList<>();
@@ -117,8 +121,10 @@ public final class Simulation implements SimulationView, AutoCloseable {
         fields = new FieldSet(grid, routing.fieldCount());
         ctx = new StepContext(scene, store, grid, layout, fields, routing, boundaries, particleContact, workers,
                 laws, damage, bodyNames, stencils);
-        integrator = new ExplicitStep(ctx, new DivergenceGuard(scene, speedLimit));
-        policy = new TimeStepPolicy(scene, c);
+        implicit = resolveImplicit(scene, laws, c, Math.max(prescribed, currentMaxSpeed()));
+        DivergenceGuard guard = new DivergenceGuard(scene, speedLimit);
+        integrator = implicit ? new ImplicitStep(ctx, guard) : new ExplicitStep(ctx, guard);
+        policy = new TimeStepPolicy(scene, c, implicit);
         meter = new DiagnosticsMeter(ctx, integrator.constitutive());
         particleView = new StoreView(store);
         gridView = new FieldGridView(grid, fields, origin, dx);
@@ -299,6 +305,39 @@ public final class Simulation implements SimulationView, AutoCloseable {
             frame++;
         }
         return onFrame;
+    }
+
+    /**
+     * Which integrator runs: the scene's choice, with auto resolved to implicit when every law provides its stress
+     * differential, separation is off, and the elastic step limit is well below the motion limit.
+     */
+    private static boolean resolveImplicit(Scene scene, MaterialLaw[] laws, double waveSpeed, double moved) {
+        switch (scene.integration()) {
+            case IMPLICIT:
+                return true;
+            case EXPLICIT:
+                return false;
+            default:
+                if (scene.separates()) {
+                    return false;
+                }
+                for (MaterialLaw l : laws) {
+                    if (!l.hasStressDifferential()) {
+                        return false;
+                    }
+                }
+                return TimeStepPolicy.prefersImplicit(waveSpeed, TimeStepPolicy.motionSpeed(scene, moved));
+        }
+    }
+
+    /** @return whether this simulation integrates implicitly (the scene's choice, with auto resolved) */
+    public boolean implicit() {
+        return implicit;
+    }
+
+    /** @return the implicit solver's running counts (iterations, halvings), or null for an explicit run */
+    public ImplicitStatistics implicitStatistics() {
+        return integrator.statistics();
     }
 
     private double currentMaxSpeed() {

@@ -145,12 +145,12 @@ public final class ExplicitStep implements Integrator {
         maxSpeed = speed;
     }
 
-    /** @return conjugate-gradient iterations of the last phase-field solve (0 without phase-field damage) */
+    @Override
     public int phaseFieldIterations() {
         return phaseField == null ? 0 : phaseField.lastIterations();
     }
 
-    /** @return relative residual reached by the last phase-field solve (0 without phase-field damage) */
+    @Override
     public double phaseFieldResidual() {
         return phaseField == null ? 0 : phaseField.lastResidual();
     }
@@ -175,7 +175,7 @@ public final class ExplicitStep implements Integrator {
         return m;
     }
 
-    /** @return the stress and energy of the particles (for diagnostics) */
+    @Override
     public ConstitutiveUpdate constitutive() {
         return constitutive;
     }

@@ -28,4 +28,18 @@ public interface Integrator {
      * @return wall time per phase since creation, s, in step order (names are the integrator's own)
      */
     java.util.Map<String, Double> phaseSeconds();
+
+    /** @return the stress and energy of the particles (for diagnostics) */
+    ConstitutiveUpdate constitutive();
+
+    /** @return conjugate-gradient iterations of the last phase-field solve (0 without phase-field damage) */
+    int phaseFieldIterations();
+
+    /** @return relative residual reached by the last phase-field solve (0 without phase-field damage) */
+    double phaseFieldResidual();
+
+    /** @return the implicit solver's counts, or null for an explicit integrator */
+    default ImplicitStatistics statistics() {
+        return null;
+    }
 }
