@@ -241,6 +241,25 @@ public final class GridBoundaries {
      * @return whether any boundary acts at the node
      */
     public boolean projectIncrement(int node, int bx, int by, int bz, double[] dv, double[] nrm) {
+        return projectIncrement(node, bx, by, bz, dv, nrm, null);
+    }
+
+    /**
+     * {@link #projectIncrement(int, int, int, int, double[], double[])} with the contact state known: a separating
+     * wall or obstacle constrains the node only where the node's velocity (after {@link #applyNode}) does not leave
+     * it, i.e. its normal velocity relative to the boundary is not positive. A node already leaving is free, since
+     * holding its normal velocity fixed would let the boundary drive it and do work.
+     *
+     * @param node     grid node
+     * @param bx       node lattice x of the block origin
+     * @param by       node lattice y of the block origin
+     * @param bz       node lattice z of the block origin
+     * @param dv       (input and output) increments, 3 per node, m/s
+     * @param nrm      worker scratch, 9 values
+     * @param velocity node velocities after the boundaries, 3 per node, m/s; null to treat every contact as active
+     * @return whether any boundary acts at the node
+     */
+    public boolean projectIncrement(int node, int bx, int by, int bz, double[] dv, double[] nrm, double[] velocity) {
         int l = node & 63;
         int n3 = 3 * node;
         if (gripTags.length > node && gripTags[node] != Integer.MAX_VALUE) {
@@ -256,6 +275,9 @@ public final class GridBoundaries {
         for (int f = 0; f < 6; f++) {
             if (walls[f].acts() && onWall(f, px, py, pz)) {
                 wallNormal(f, nrm);
+                if (leaving(walls[f], velocity, n3, nrm, 0, 0, 0)) {
+                    continue;
+                }
                 removeConstrained(walls[f], dv, n3, nrm);
                 any = true;
             }
@@ -263,12 +285,24 @@ public final class GridBoundaries {
         for (int o = 0; o < obstacles.length; o++) {
             Obstacle ob = obstacles[o];
             if (ob.contact().acts()
-                    && obstacleContactFrame(ob, factor[grips.length + o], obstaclePose, 12 * o, px, py, pz, nrm) <= 0) {
+                    && obstacleContactFrame(ob, factor[grips.length + o], obstaclePose, 12 * o, px, py, pz, nrm) <= 0
+                    && !leaving(ob.contact(), velocity, n3, nrm, nrm[6], nrm[7], nrm[8])) {
                 removeConstrained(ob.contact(), dv, n3, nrm);
                 any = true;
             }
         }
         return any;
+    }
+
+    /** Whether a separating law lets a node go: its velocity relative to the boundary leaves along the normal. */
+    private static boolean leaving(ContactLaw law, double[] v, int n3, double[] nrm, double ux, double uy,
+                                  double uz) {
+        if (v == null || law.holdsNormal()) {
+            return false;
+        }
+        double rx = v[n3] - ux, ry = v[n3 + 1] - uy, rz = v[n3 + 2] - uz;
+        double vn = rx * nrm[0] + ry * nrm[1] + rz * nrm[2];
+        return vn > 1e-12 * Math.sqrt(rx * rx + ry * ry + rz * rz);
     }
 
     private static void removeConstrained(ContactLaw law, double[] dv, int n3, double[] nrm) {

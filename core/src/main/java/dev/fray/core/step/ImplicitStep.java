@@ -275,7 +275,7 @@ public final class ImplicitStep implements Integrator {
                     u[3 * i + 1] = 0;
                     u[3 * i + 2] = 0;
                     u[3 * i + k] = 1;
-                    if (!bounds.projectIncrement(i, bx, by, bz, u, nrm[w])) {
+                    if (!bounds.projectIncrement(i, bx, by, bz, u, nrm[w], vStar)) {
                         break;
                     }
                     con[i] = 1;
