@@ -20,7 +20,20 @@ final class GridVelocityUpdate {
     private double[] partial = new double[0];
     private double[] accumulators = new double[0];
 
+    private final boolean dampMomentumOnly;
+
     GridVelocityUpdate(StepContext ctx) {
+        this(ctx, false);
+    }
+
+    /**
+     * @param ctx              the step context
+     * @param dampMomentumOnly damp p / m but not the gravity increment: v = (p / m) e^{-c dt} + g dt. The implicit
+     *                         step needs it: at its long steps, damping gravity too would scale the weight a body
+     *                         at rest carries by e^{-c dt}
+     */
+    GridVelocityUpdate(StepContext ctx, boolean dampMomentumOnly) {
+        this.dampMomentumOnly = dampMomentumOnly;
         this.ctx = ctx;
         this.fieldContact = ctx.fields().count() > 1 ? new FieldContact(ctx.scene().separationFriction()) : null;
         this.normals = new double[ctx.workers().threads()][9];
@@ -103,10 +116,22 @@ final class GridVelocityUpdate {
                     continue;
                 }
                 double inv = 1.0 / m;
-                double ux = gv[n3] * inv + gx, uy = gv[n3 + 1] * inv + gy, uz = gv[n3 + 2] * inv + gz;
-                gv[n3] = ux * decay;
-                gv[n3 + 1] = uy * decay;
-                gv[n3 + 2] = uz * decay;
+                double ux, uy, uz;
+                if (dampMomentumOnly) {
+                    ux = gv[n3] * inv;
+                    uy = gv[n3 + 1] * inv;
+                    uz = gv[n3 + 2] * inv;
+                    gv[n3] = ux * decay + gx;
+                    gv[n3 + 1] = uy * decay + gy;
+                    gv[n3 + 2] = uz * decay + gz;
+                } else {
+                    ux = gv[n3] * inv + gx;
+                    uy = gv[n3 + 1] * inv + gy;
+                    uz = gv[n3 + 2] * inv + gz;
+                    gv[n3] = ux * decay;
+                    gv[n3 + 1] = uy * decay;
+                    gv[n3 + 2] = uz * decay;
+                }
                 if (damping) {
                     damped += 0.5 * m * (ux * ux + uy * uy + uz * uz) * (1 - decay * decay);
                 }

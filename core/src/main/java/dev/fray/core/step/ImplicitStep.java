@@ -39,6 +39,8 @@ public final class ImplicitStep implements Integrator {
     public static final int MAX_HALVINGS = 4;
     private static final double ARMIJO = 1e-4;
     private static final int LINE_SEARCH_STEPS = 12;
+    /** Residual reduction asked of each linear solve (inexact Newton, Dembo, Eisenstat and Steihaug 1982). */
+    private static final double CG_REDUCTION = 1e-3;
 
     private final StepContext ctx;
     private final ConstitutiveUpdate constitutive;
@@ -81,7 +83,7 @@ public final class ImplicitStep implements Integrator {
         this.g2p = new GridToParticle(ctx.store(), ctx.layout(), ctx.fields(), ctx.stencils(), workers.threads(),
                 ctx.scene().kernel(), ctx.origin(), ctx.scene().cellSize(), ctx.particleContact(),
                 new WallHold(ctx.scene().domain(), ctx.scene().walls(), ctx.scene().cellSize()));
-        this.gridUpdate = new GridVelocityUpdate(ctx);
+        this.gridUpdate = new GridVelocityUpdate(ctx, true);
         this.particleUpdate = new ParticleUpdate(ctx);
         boolean pf = false;
         for (DamageModel d : ctx.damage()) {
@@ -204,8 +206,9 @@ public final class ImplicitStep implements Integrator {
             stats.newton++;
             potential.tangents(mass, invDiag);
             negate(gb, res);
-            // inexact Newton: a loose linear solve far from the solution, a tight one near it
-            double cgTol = Math.max(Math.min(0.5, Math.sqrt(norm / (norm + tol))) * 0.1 * norm, 0.5 * tol);
+            // inexact Newton: three digits per linear solve, so a near-linear step needs two Newton iterations at the
+            // default tolerance, and never more than the stopping rule asks for
+            double cgTol = Math.max(CG_REDUCTION * norm, 0.5 * tol);
             int cgIt = cg.solve((in, out) -> potential.apply(mass, in, out), res, dir, sys, gb, cgTol, maxCg);
             stats.cg += cgIt;
             stats.lastCg = cgIt;
