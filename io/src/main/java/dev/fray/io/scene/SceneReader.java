@@ -18,6 +18,7 @@ import dev.fray.core.particles.ChannelSpec;
 import dev.fray.core.plugin.PluginRegistry;
 import dev.fray.core.plugin.Suggest;
 import dev.fray.core.sim.Body;
+import dev.fray.core.sim.Integration;
 import dev.fray.core.sim.Scene;
 import dev.fray.damage.Fibers;
 import dev.fray.io.scene.Fields.Range;
@@ -62,7 +63,9 @@ public final class SceneReader {
     static final List<String> TOP_KEYS = List.of("format", "description", "domain", "gravity", "walls", "run",
             "output", "bodies", "obstacles", "grips");
     static final List<String> RUN_KEYS = List.of("cellSize", "frameRate", "cfl", "damping", "threads",
-            "fixedTimeStep", "maxTimeStep", "speedLimit", "kernel", "phaseFieldSolver", "separation");
+            "fixedTimeStep", "maxTimeStep", "speedLimit", "kernel", "phaseFieldSolver", "separation", "integration",
+            "implicitSolver");
+    static final List<String> INTEGRATIONS = List.of("explicit", "implicit", "auto");
     static final List<String> SOLVER_KEYS = List.of("tolerance", "maxIterations");
     static final List<String> SEPARATION_KEYS = List.of("damageThreshold", "friction");
     static final List<String> OUTPUT_KEYS = List.of("frames", "formats", "channels", "checkpointEvery",
@@ -262,6 +265,11 @@ public final class SceneReader {
             try {
                 scene = b.build();
             } catch (InvalidInputException e) {
+                if (e.key() == dev.fray.core.error.FrayMessage.IMPLICIT_UNSUPPORTED) {
+                    // a combination of settings, found only once the whole scene is known
+                    problems.at("run.integration", 0, 0, e.getMessage());
+                    return null;
+                }
                 // Everything the builder checks is checked above with a location; this is a safety net.
                 problems.at("", 0, 0, e.getMessage());
                 return null;
@@ -383,6 +391,21 @@ public final class SceneReader {
                 Long it = s.integer("maxIterations", 200L, 1, 100_000, "iteration cap per step");
                 if (tol != null && it != null) {
                     b.phaseFieldSolver(tol, it.intValue());
+                }
+            }
+            String integration = f.string("integration", "explicit", INTEGRATIONS, "time integration");
+            if (integration != null) {
+                b.integration(Integration.valueOf(integration.toUpperCase(java.util.Locale.ROOT)));
+            }
+            Obj implicitSolver = f.object("implicitSolver", false, "{\"tolerance\": ..., \"maxIterations\": ...}");
+            if (implicitSolver != null) {
+                Fields s = new Fields(problems, implicitSolver, "run.implicitSolver", SOLVER_KEYS);
+                Double tol = s.number("tolerance", Scene.DEFAULT_IMPLICIT_TOLERANCE, new Range(0, true, 1, true, ""),
+                        "Newton residual relative to its value at the step's start");
+                Long it = s.integer("maxIterations", (long) Scene.DEFAULT_IMPLICIT_ITERATIONS, 1, 1000,
+                        "Newton iterations before a step is halved");
+                if (tol != null && it != null) {
+                    b.implicitSolver(tol, it.intValue());
                 }
             }
             Obj sep = f.object("separation", false, "{\"damageThreshold\": ..., \"friction\": ...}");

@@ -225,6 +225,11 @@ public final class SceneWriter {
         m.put("kernel", s.kernel() == Kernel.CUBIC ? "cubic" : "quadratic");
         m.put("phaseFieldSolver", map("tolerance", s.phaseFieldTolerance(),
                 "maxIterations", (long) s.phaseFieldMaxIterations()));
+        m.put("integration", s.integration().key());
+        if (s.integration() != dev.fray.core.sim.Integration.EXPLICIT) {
+            m.put("implicitSolver", map("tolerance", s.implicitTolerance(),
+                    "maxIterations", (long) s.implicitMaxIterations()));
+        }
         if (s.separates()) {
             m.put("separation", map("damageThreshold", s.separationThreshold(), "friction", s.separationFriction()));
         }
