@@ -124,7 +124,7 @@ public final class Simulation implements SimulationView, AutoCloseable {
         implicit = resolveImplicit(scene, laws, c, Math.max(prescribed, currentMaxSpeed()));
         DivergenceGuard guard = new DivergenceGuard(scene, speedLimit);
         integrator = implicit ? new ImplicitStep(ctx, guard) : new ExplicitStep(ctx, guard);
-        policy = new TimeStepPolicy(scene, c, implicit);
+        policy = new TimeStepPolicy(scene, c, implicit, prescribed);
         meter = new DiagnosticsMeter(ctx, integrator.constitutive());
         particleView = new StoreView(store);
         gridView = new FieldGridView(grid, fields, origin, dx);

@@ -20,6 +20,7 @@ public final class TimeStepPolicy {
     private final double dx;
     private final double waveSpeed;
     private final boolean implicit;
+    private final double prescribedSpeed;
 
     /**
      * @param scene     the scene (CFL number, fixed and largest step)
@@ -35,6 +36,18 @@ public final class TimeStepPolicy {
      * @param implicit  whether the steps are implicit (limited by motion only)
      */
     public TimeStepPolicy(Scene scene, double waveSpeed, boolean implicit) {
+        this(scene, waveSpeed, implicit, 0);
+    }
+
+    /**
+     * @param scene           the scene (CFL number, fixed and largest step)
+     * @param waveSpeed       largest elastic wave speed of the bodies, m/s
+     * @param implicit        whether the steps are implicit (limited by motion only)
+     * @param prescribedSpeed largest speed of an obstacle or grip, m/s: an implicit step is also limited by it, so
+     *                        a moving obstacle advances a fraction of a cell per step even onto material at rest
+     */
+    public TimeStepPolicy(Scene scene, double waveSpeed, boolean implicit, double prescribedSpeed) {
+        this.prescribedSpeed = prescribedSpeed;
         this.scene = scene;
         this.dx = scene.cellSize();
         this.waveSpeed = waveSpeed;
@@ -103,7 +116,7 @@ public final class TimeStepPolicy {
         if (implicit) {
             double[] g = scene.gravity();
             double gn = Math.sqrt(g[0] * g[0] + g[1] * g[1] + g[2] * g[2]);
-            double v = Math.max(maxSpeed, Math.sqrt(scene.cfl() * dx * gn));
+            double v = Math.max(Math.max(maxSpeed, prescribedSpeed), Math.sqrt(scene.cfl() * dx * gn));
             double h = v > 0 ? scene.cfl() * dx / v : Double.POSITIVE_INFINITY;
             return Math.min(Math.min(h, 1.0 / scene.frameRate()), scene.maxTimeStep());
         }

@@ -9,6 +9,7 @@ import dev.fray.core.sim.Body;
 import dev.fray.core.sim.ParticleView;
 import dev.fray.core.sim.Scene;
 import dev.fray.core.sim.Simulation;
+import dev.fray.core.step.TimeStepPolicy;
 import dev.fray.io.cache.PlyParticleWriter;
 import dev.fray.io.cache.VtpParticleWriter;
 import dev.fray.io.scene.LoadedScene;
@@ -135,11 +136,12 @@ public final class CheckCommand implements Callable<Integer> {
         long steps = perFrame * frames;
         out.printf(Locale.ROOT, "  time step about %.3g s (%s), about %d steps per frame, %d in all%n", dt,
                 Double.isNaN(s.fixedTimeStep()) ? "adaptive, cfl " + s.cfl() + ", at rest" : "fixed", perFrame, steps);
-        if (perFrame > STIFF_STEPS_PER_FRAME) {
+        integrationCosts(out, sim, s, pv, frameTime);
+        if (perFrame > STIFF_STEPS_PER_FRAME && !sim.implicit()) {
             int stiff = stiffestBody(s);
             warnings.add(String.format(Locale.ROOT, "very stiff for this grid: body \"%s\" carries waves at %.4g m/s, "
                     + "which limits the step to %.3g s, %d steps per frame; lower youngsModulus, raise density or "
-                    + "use a larger cellSize", s.bodies().get(stiff).name(),
+                    + "use a larger cellSize, or run.integration implicit", s.bodies().get(stiff).name(),
                     s.bodies().get(stiff).material().waveSpeed(), dt, perFrame));
         }
 
@@ -282,5 +284,50 @@ public final class CheckCommand implements Callable<Integer> {
             return String.format(Locale.ROOT, "%.1f MiB", b / (1024.0 * 1024));
         }
         return String.format(Locale.ROOT, "%.2f GiB", b / (1024.0 * 1024 * 1024));
+    }
+
+    /**
+     * The step and expected cost of each integrator, in particle passes per frame (a pass: one scatter and gather
+     * of every particle's stencil, the work of one explicit step). The implicit estimate assumes two Newton
+     * iterations per step and about 8 sqrt(c dt / dx) conjugate-gradient iterations each, as measured with the
+     * block-Jacobi preconditioner on the implicit benchmark, plus four passes per Newton iteration for the energy,
+     * gradient, differentials and line search.
+     */
+    private static void integrationCosts(PrintWriter out, Simulation sim, Scene s, ParticleView pv,
+                                         double frameTime) {
+        int particles = pv.size();
+        double c = sim.maxWaveSpeed();
+        double moving = TimeStepPolicy.motionSpeed(s, prescribedSpeed(s, pv));
+        double dx = s.cellSize();
+        double dtExplicit = TimeStepPolicy.stepAt(s, c, moving, false);
+        double dtImplicit = TimeStepPolicy.stepAt(s, c, moving, true);
+        double explicitSteps = Math.ceil(frameTime / dtExplicit);
+        double implicitSteps = Math.ceil(frameTime / dtImplicit);
+        double cg = 8 * Math.sqrt(c * dtImplicit / dx);
+        double implicitPasses = implicitSteps * 2 * (4 + cg);
+        out.printf(Locale.ROOT, "  integration %s, runs %s; per frame at a planning speed of %.3g m/s:%n",
+                s.integration().key(), sim.implicit() ? "implicit" : "explicit", moving);
+        out.printf(Locale.ROOT, "    explicit: step %.3g s, %.0f steps, about %.3g particle passes%n", dtExplicit,
+                explicitSteps, explicitSteps * (double) particles);
+        out.printf(Locale.ROOT, "    implicit: step %.3g s, %.0f steps, about %.0f CG iterations per Newton "
+                        + "iteration, about %.3g particle passes (%.2gx explicit)%n", dtImplicit, implicitSteps, cg,
+                implicitPasses * particles, implicitPasses / explicitSteps);
+    }
+
+    private static double prescribedSpeed(Scene s, ParticleView pv) {
+        double v = 0;
+        for (var o : s.obstacles()) {
+            v = Math.max(v, o.motion().linearSpeed());
+        }
+        for (var g : s.grips()) {
+            v = Math.max(v, g.motion().linearSpeed());
+        }
+        double[] vel = new double[3 * pv.size()];
+        pv.copyById(ParticleStore.VELOCITY, vel, 0);
+        for (int p = 0; p < pv.size(); p++) {
+            v = Math.max(v, Math.sqrt(vel[3 * p] * vel[3 * p] + vel[3 * p + 1] * vel[3 * p + 1]
+                    + vel[3 * p + 2] * vel[3 * p + 2]));
+        }
+        return v;
     }
 }

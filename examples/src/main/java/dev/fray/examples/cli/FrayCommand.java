@@ -29,7 +29,7 @@ import picocli.CommandLine.Spec;
 @Command(name = "fray", mixinStandardHelpOptions = true, versionProvider = FrayCommand.Version.class,
         description = "Simulates solids that crack, tear and peel with the material point method.",
         subcommands = {RunCommand.class, CheckCommand.class, ResumeCommand.class, InfoCommand.class,
-            DemoCommand.class, BenchCommand.class, CommandLine.HelpCommand.class})
+            DemoCommand.class, BenchCommand.class, StiffBenchCommand.class, CommandLine.HelpCommand.class})
 public final class FrayCommand implements Callable<Integer> {
     /** Exit code: success. */
     public static final int OK = 0;

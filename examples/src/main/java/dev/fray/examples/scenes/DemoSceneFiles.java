@@ -11,7 +11,7 @@ import java.util.List;
 
 /**
  * The scene files in {@code examples/scenes/} that are written from the built-in demos rather than by hand: the
- * fracture demos and the plastic ones. Each is {@link SceneWriter}'s text of {@link DemoScenes#load} with
+ * fracture demos, the plastic ones and the implicit one. Each is {@link SceneWriter}'s text of {@link DemoScenes#load} with
  * {@link #THREADS} worker threads ({@code fray run --threads} overrides it, and results do not depend on it).
  * Regenerate them after changing a demo with
  * <pre>
@@ -21,7 +21,8 @@ import java.util.List;
 public final class DemoSceneFiles {
     /** The demos shipped as generated scene files, file name NAME.json. */
     public static final List<String> GENERATED = List.of("board-split", "slab-tear", "slab-tear-fast",
-            "slab-tear-slow", "slab-tear-soft", "slab-tear-stiff", "sand-collapse", "metal-tear", "clay-cut");
+            "slab-tear-slow", "slab-tear-soft", "slab-tear-stiff", "sand-collapse", "metal-tear", "clay-cut",
+            "tile-strike");
     /** Worker threads the files name. */
     public static final int THREADS = 4;
 

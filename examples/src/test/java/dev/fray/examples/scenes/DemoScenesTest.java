@@ -30,12 +30,16 @@ class DemoScenesTest {
     private static final List<String> PLASTIC = List.of("sand-collapse", "metal-tear", "clay-cut");
     /** The plastic demos that also break. */
     private static final List<String> PLASTIC_DAMAGE = List.of("metal-tear", "clay-cut");
+    /** The demos that run with the implicit integrator (last in the list). */
+    private static final List<String> IMPLICIT = List.of("tile-strike");
 
     @Test
     void listsTheFractureDemosThenThePlasticOnesAfterTheOthers() {
         assertEquals(List.of("soft-drop", "spin-box"), DemoScenes.names().subList(0, 2));
         assertEquals(FRACTURE, DemoScenes.names().subList(2, 2 + FRACTURE.size()));
-        assertEquals(PLASTIC, DemoScenes.names().subList(2 + FRACTURE.size(), DemoScenes.names().size()));
+        int plasticEnd = 2 + FRACTURE.size() + PLASTIC.size();
+        assertEquals(PLASTIC, DemoScenes.names().subList(2 + FRACTURE.size(), plasticEnd));
+        assertEquals(IMPLICIT, DemoScenes.names().subList(plasticEnd, DemoScenes.names().size()));
         assertThrows(UnsupportedOperationException.class, () -> DemoScenes.names().add("x"));
     }
 
@@ -51,7 +55,9 @@ class DemoScenesTest {
             // Large enough to look like something, small enough for a quick default run.
             assertTrue(n >= 5_000 && n <= 40_000, name + ": " + n + " particles");
             boolean breaks = sim.particles().channelNames().contains(DamageModel.DAMAGE);
-            assertEquals(FRACTURE.contains(name) || PLASTIC_DAMAGE.contains(name), breaks, name + " has damage");
+            assertEquals(FRACTURE.contains(name) || PLASTIC_DAMAGE.contains(name) || IMPLICIT.contains(name), breaks,
+                    name + " has damage");
+            assertEquals(IMPLICIT.contains(name), sim.implicit(), name + " integrates implicitly");
             assertEquals(PLASTIC.contains(name), sim.particles().channelNames().contains("plastic-strain"),
                     name + " has a plastic law");
             for (int i = 0; i < 3; i++) {

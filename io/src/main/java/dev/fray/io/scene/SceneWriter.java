@@ -225,8 +225,9 @@ public final class SceneWriter {
         m.put("kernel", s.kernel() == Kernel.CUBIC ? "cubic" : "quadratic");
         m.put("phaseFieldSolver", map("tolerance", s.phaseFieldTolerance(),
                 "maxIterations", (long) s.phaseFieldMaxIterations()));
-        m.put("integration", s.integration().key());
         if (s.integration() != dev.fray.core.sim.Integration.EXPLICIT) {
+            // explicit is the default, so scene files written before integration existed stay as they were
+            m.put("integration", s.integration().key());
             m.put("implicitSolver", map("tolerance", s.implicitTolerance(),
                     "maxIterations", (long) s.implicitMaxIterations()));
         }
