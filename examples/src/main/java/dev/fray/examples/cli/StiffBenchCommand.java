@@ -35,7 +35,7 @@ public final class StiffBenchCommand implements Callable<Integer> {
             description = "Grid cell size, m; the plate is two cells thick (default: ${DEFAULT-VALUE}).")
     private double cell;
 
-    @Option(names = "--tolerance", paramLabel = "T", defaultValue = "1e-2",
+    @Option(names = "--tolerance", paramLabel = "T", defaultValue = "5e-2",
             description = "Implicit Newton tolerance, relative residual (default: ${DEFAULT-VALUE}).")
     private double tolerance;
 
