@@ -17,7 +17,50 @@ public final class ParticleSampler {
     /** Name of the particle channel holding the index of the grip that holds a particle (-1 none). */
     public static final String GRIP_CHANNEL = "grip";
 
+    /** Lattice points one body may hold. */
+    public static final double MAX_LATTICE_POINTS = 2e8;
+
     private ParticleSampler() {
+    }
+
+    /**
+     * @param body a body
+     * @param dx   the grid's cell size, m
+     * @return the body's particle spacing, m: its own, or half a cell
+     */
+    public static double spacing(Body body, double dx) {
+        return Double.isNaN(body.spacing()) ? 0.5 * dx : body.spacing();
+    }
+
+    /**
+     * Lattice points along x, y and z over a body's bounds, counted in floating point so that no product wraps
+     * around.
+     *
+     * @param body    a body
+     * @param spacing its particle spacing, m
+     * @return the three counts, each at least 1 (whole numbers)
+     * @throws InvalidInputException if the lattice would hold more than {@link #MAX_LATTICE_POINTS} points
+     */
+    public static double[] latticeCounts(Body body, double spacing) {
+        Bounds bb = body.shape().bounds();
+        double[] n = {count(bb.maxX() - bb.minX(), spacing), count(bb.maxY() - bb.minY(), spacing),
+            count(bb.maxZ() - bb.minZ(), spacing)};
+        double points = n[0] * n[1] * n[2];
+        if (!(points <= MAX_LATTICE_POINTS)) {
+            throw new InvalidInputException(FrayMessage.INCONSISTENT, "body \"" + body.name() + "\"",
+                    String.format(java.util.Locale.ROOT, "its bounds (%.4g x %.4g x %.4g m) at particle spacing "
+                            + "%.4g m make %s lattice points, more than the %.0e allowed per body; use a larger "
+                            + "spacing or cellSize, or a smaller body", bb.maxX() - bb.minX(), bb.maxY() - bb.minY(),
+                            bb.maxZ() - bb.minZ(), spacing,
+                            Double.isFinite(points) ? String.format(java.util.Locale.ROOT, "%.3g", points)
+                                    : "too many", MAX_LATTICE_POINTS));
+        }
+        return n;
+    }
+
+    private static double count(double extent, double spacing) {
+        double n = Math.floor(extent / spacing + 1e-9);
+        return n >= 1 ? n : 1;   // also for NaN
     }
 
     /**
@@ -77,15 +120,10 @@ public final class ParticleSampler {
         int total = 0;
         for (int b = 0; b < bodies.size(); b++) {
             Body body = bodies.get(b);
-            double s = Double.isNaN(body.spacing()) ? 0.5 * dx : body.spacing();
+            double s = spacing(body, dx);
             Bounds bb = body.shape().bounds();
-            long nx = Math.max(1, (long) Math.floor((bb.maxX() - bb.minX()) / s + 1e-9));
-            long ny = Math.max(1, (long) Math.floor((bb.maxY() - bb.minY()) / s + 1e-9));
-            long nz = Math.max(1, (long) Math.floor((bb.maxZ() - bb.minZ()) / s + 1e-9));
-            if (nx * ny * nz > 200_000_000L) {
-                throw new InvalidInputException(FrayMessage.OUT_OF_RANGE, "body \"" + body.name()
-                        + "\" lattice points", nx * ny * nz, "<= 2e8 (use a larger spacing)");
-            }
+            double[] n = latticeCounts(body, s);
+            long nx = (long) n[0], ny = (long) n[1], nz = (long) n[2];
             // Centre the lattice in the bounds so a box is filled symmetrically.
             double x0 = 0.5 * (bb.minX() + bb.maxX()) - 0.5 * (nx - 1) * s;
             double y0 = 0.5 * (bb.minY() + bb.maxY()) - 0.5 * (ny - 1) * s;
@@ -135,7 +173,7 @@ public final class ParticleSampler {
         int p = 0;
         for (int b = 0; b < bodies.size(); b++) {
             Body body = bodies.get(b);
-            double s = Double.isNaN(body.spacing()) ? 0.5 * dx : body.spacing();
+            double s = spacing(body, dx);
             double v0 = s * s * s;
             double rho = body.material().density();
             Bounds bb = body.shape().bounds();

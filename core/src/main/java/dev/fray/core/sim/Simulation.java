@@ -79,11 +79,14 @@ public final class Simulation implements SimulationView, AutoCloseable {
      *
      * @param scene   the scene
      * @param options how to run it (threads); results do not depend on them
-     * @throws InvalidInputException if a body holds no particle
+     * @throws InvalidInputException if a body holds no particle, or the scene's {@link MemoryEstimate} exceeds the
+     *                               heap the JVM may use
      */
     public Simulation(Scene scene, RunOptions options) {
         this.scene = Checks.notNull("scene", scene);
         Checks.notNull("run options", options);
+        // Refuse before allocating: a scene that cannot fit should end now with advice, not in out-of-memory.
+        MemoryEstimate.of(scene).requireFits(Runtime.getRuntime().maxMemory());
         double dx = scene.cellSize();
         List<Body> bodies = scene.bodies();
         MaterialLaw[] laws = new MaterialLaw[bodies.size()];

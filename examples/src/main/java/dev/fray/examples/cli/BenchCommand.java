@@ -4,6 +4,7 @@ import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import dev.fray.core.error.Checks;
+import dev.fray.core.sim.MemoryEstimate;
 import dev.fray.examples.bench.StandardBench;
 
 import java.io.PrintWriter;
@@ -17,7 +18,8 @@ import picocli.CommandLine.Spec;
 /**
  * {@code fray bench}: runs a standard benchmark scene and prints exactly one JSON line on standard output with the
  * keys scene, particles, steps, threads, seconds, particleStepsPerSecond, peakHeapBytes, bytesPerParticle (heap
- * retained per particle), peakBytesPerParticle (peak heap per particle, uncollected garbage included) and gridBytes.
+ * retained per particle), peakBytesPerParticle (peak heap per particle, uncollected garbage included), gridBytes and
+ * estimatedBytesPerParticle (the {@link MemoryEstimate} that run and check compare with the heap).
  */
 @Command(name = "bench", mixinStandardHelpOptions = true,
         description = {"Run a standard benchmark and print one JSON line with the measurements.",
@@ -87,6 +89,9 @@ public final class BenchCommand implements Callable<Integer> {
         o.put("bytesPerParticle", r.bytesPerParticle());
         o.put("peakBytesPerParticle", r.peakBytesPerParticle());
         o.put("gridBytes", r.gridBytes());
+        // The estimate that run and check compare with the heap, beside the heap this run retained.
+        o.put("estimatedBytesPerParticle", (double) MemoryEstimate.of(
+                StandardBench.scene(scene, particles, steps + warmup, t)).bytes() / r.particles());
         if (breakdown) {
             ObjectNode phases = o.putObject("phaseShares");
             r.phaseShares().forEach(phases::put);

@@ -3,9 +3,9 @@ package dev.fray.examples.cli;
 import dev.fray.core.boundary.Grip;
 import dev.fray.core.boundary.Obstacle;
 import dev.fray.core.error.Checks;
-import dev.fray.core.grid.SparseGrid;
 import dev.fray.core.particles.ParticleStore;
 import dev.fray.core.sim.Body;
+import dev.fray.core.sim.MemoryEstimate;
 import dev.fray.core.sim.ParticleView;
 import dev.fray.core.sim.Scene;
 import dev.fray.core.sim.Simulation;
@@ -26,10 +26,8 @@ import picocli.CommandLine.Spec;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.HashSet;
 import java.util.List;
 import java.util.Locale;
-import java.util.Set;
 import java.util.concurrent.Callable;
 
 /**
@@ -45,8 +43,6 @@ public final class CheckCommand implements Callable<Integer> {
     static final int STIFF_STEPS_PER_FRAME = 1000;
     /** Bodies with fewer particles are flagged. */
     static final int FEW_PARTICLES = 100;
-    /** Bytes per grid block: 64 nodes of mass, momentum and a flag, plus the hash entry (see SparseGrid). */
-    static final long BLOCK_BYTES = SparseGrid.NODES_PER_BLOCK * (8L + 24L + 4L) + 24L;
 
     @Spec
     private CommandSpec spec;
@@ -145,7 +141,6 @@ public final class CheckCommand implements Callable<Integer> {
                     s.bodies().get(stiff).material().waveSpeed(), dt, perFrame));
         }
 
-        long blocks = touchedBlocks(pv, s, dx);
         long particleBytes = sim.particleMemoryBytes();
         long extra = 0;
         for (String c : channels) {
@@ -154,8 +149,11 @@ public final class CheckCommand implements Callable<Integer> {
         long ply = pv.size() * (8L * 6 + 8 + 8 * extra);
         long vtp = pv.size() * (8L * 6 + 8 + 16 + 8 * extra);
         long checkpoint = particleBytes;
-        out.printf(Locale.ROOT, "  memory: particles %s, grid about %s at the start (%d blocks of 4^3 nodes)%n",
-                bytes(particleBytes), bytes(blocks * BLOCK_BYTES), blocks);
+        MemoryEstimate m = MemoryEstimate.of(s);
+        out.printf(Locale.ROOT, "  memory: particles %s, grid about %s at the start (%d blocks of 4^3 nodes); about %s "
+                + "while running, %s at the peak, of a Java heap limit of %s%n", bytes(m.particleBytes()),
+                bytes(m.gridBytes()), m.gridBlocks(), bytes(m.bytes()), bytes(m.peakBytes()),
+                bytes(Runtime.getRuntime().maxMemory()));
         StringBuilder files = new StringBuilder();
         if (loaded.output().formats().contains(OutputFormat.PLY)) {
             files.append(String.format(Locale.ROOT, "PLY %s per frame, ", bytes(ply)));
@@ -246,44 +244,8 @@ public final class CheckCommand implements Callable<Integer> {
         return best;
     }
 
-    /** Grid blocks the particles' stencils touch now: the grid the first step will allocate. */
-    private static long touchedBlocks(ParticleView pv, Scene s, double dx) {
-        double[] x = new double[3 * pv.size()];
-        pv.copyById(ParticleStore.POSITION, x, 0);
-        var d = s.domain();
-        int reach = s.kernel().support() - 1;
-        Set<Long> keys = new HashSet<>();
-        int[] lo = new int[3];
-        int[] hi = new int[3];
-        double[] origin = {d.minX(), d.minY(), d.minZ()};
-        for (int i = 0; i < pv.size(); i++) {
-            for (int a = 0; a < 3; a++) {
-                int base = s.kernel().base((x[3 * i + a] - origin[a]) / dx);
-                lo[a] = Math.floorDiv(base, SparseGrid.BLOCK);
-                hi[a] = Math.floorDiv(base + reach, SparseGrid.BLOCK);
-            }
-            for (int bx = lo[0]; bx <= hi[0]; bx++) {
-                for (int by = lo[1]; by <= hi[1]; by++) {
-                    for (int bz = lo[2]; bz <= hi[2]; bz++) {
-                        keys.add(SparseGrid.key(bx, by, bz));
-                    }
-                }
-            }
-        }
-        return keys.size();
-    }
-
     static String bytes(long b) {
-        if (b < 1 << 10) {
-            return b + " B";
-        }
-        if (b < 1 << 20) {
-            return String.format(Locale.ROOT, "%.1f KiB", b / 1024.0);
-        }
-        if (b < 1L << 30) {
-            return String.format(Locale.ROOT, "%.1f MiB", b / (1024.0 * 1024));
-        }
-        return String.format(Locale.ROOT, "%.2f GiB", b / (1024.0 * 1024 * 1024));
+        return MemoryEstimate.bytesText(b);
     }
 
     /**

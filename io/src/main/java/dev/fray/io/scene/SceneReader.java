@@ -274,6 +274,13 @@ public final class SceneReader {
                 problems.at("", 0, 0, e.getMessage());
                 return null;
             }
+            try {
+                dev.fray.core.sim.MemoryEstimate.of(scene).requireFits(Runtime.getRuntime().maxMemory());
+            } catch (InvalidInputException e) {
+                Node list = top.node("bodies");
+                problems.at("bodies", list.line, list.column, e.getMessage());
+                return null;
+            }
             return new LoadedScene(scene, output, description, name, baseDir);
         }
 
@@ -564,7 +571,13 @@ public final class SceneReader {
                     before.add(own);
                 }
                 try {
-                    out.add(d.builder().shape(s).build());
+                    Body body = d.builder().shape(s).build();
+                    if (!Double.isNaN(cellSize)) {
+                        // Counted before anything is sampled, so that a huge lattice is refused at once.
+                        dev.fray.core.particles.ParticleSampler.latticeCounts(body,
+                                dev.fray.core.particles.ParticleSampler.spacing(body, cellSize));
+                    }
+                    out.add(body);
                 } catch (InvalidInputException e) {
                     problems.at(d.path(), d.fields().obj().line, d.fields().obj().column, e.getMessage());
                 }
