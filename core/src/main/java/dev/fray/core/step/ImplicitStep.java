@@ -35,7 +35,6 @@ import java.util.Map;
  * {@link #MAX_HALVINGS} times; the count is reported by {@link #statistics()}.
  */
 public final class ImplicitStep implements Integrator {
-    private static final org.slf4j.Logger LOG = org.slf4j.LoggerFactory.getLogger(ImplicitStep.class);
     /** How many times a failing step is halved before its last iterate is taken as it is. */
     public static final int MAX_HALVINGS = 4;
     private static final double ARMIJO = 1e-4;
@@ -228,10 +227,6 @@ public final class ImplicitStep implements Integrator {
                     break;
                 }
                 alpha *= 0.5;
-            }
-            if (LOG.isDebugEnabled()) {
-                LOG.debug("step {} newton {}: residual {} (stop at {}), cg {}, line search {}", ctx.step, it, norm, tol,
-                        cgIt, alpha);
             }
             if (!accepted) {
                 potential.energy(v, vStar, mass);
