@@ -106,7 +106,8 @@ class FrayCommandTest {
             keys.add(it.next());
         }
         assertEquals(List.of("scene", "particles", "steps", "threads", "seconds", "particleStepsPerSecond",
-                "peakHeapBytes", "bytesPerParticle", "peakBytesPerParticle", "gridBytes"), keys);
+                "peakHeapBytes", "bytesPerParticle", "peakBytesPerParticle", "gridBytes", "estimatedBytesPerParticle"),
+                keys);
         assertEquals("drop", json.get("scene").asText());
         assertEquals(4096, json.get("particles").asInt(), "(2m)^3 with m = round(cbrt(4000/8)) = 8");
         assertEquals(5, json.get("steps").asInt());
